@@ -1,0 +1,110 @@
+/** Builds the Express app (no listening here: main.ts listens, tests call supertest(app)). */
+import express, { type Express, type RequestHandler } from 'express';
+import helmet from 'helmet';
+import { randomBytes } from 'node:crypto';
+import { existsSync, readFileSync } from 'node:fs';
+import path from 'node:path';
+import { fileURLToPath } from 'node:url';
+import type { AppContext } from './context.js';
+import { errorHandler, jsonNotFound } from './http.js';
+import { csrfGuard } from './auth/csrf.js';
+import { loadActor, sessionMiddleware } from './auth/session.js';
+import { authRouter } from './routes/auth.js';
+import { accountRouter } from './routes/account.js';
+import { devMailRouter } from './routes/dev-mail.js';
+import { healthRouter } from './routes/health.js';
+import { invitationsRouter } from './routes/invitations.js';
+import { membersRouter } from './routes/members.js';
+
+export const clientDir = fileURLToPath(new URL('../dist/trayplan/browser', import.meta.url));
+
+export interface AppOptions {
+  /** Whether the session store prunes on a timer (off in tests). */
+  pruneSessions?: boolean;
+  /** Folder of the built client; the API alone is served when it is missing. */
+  clientDir?: string;
+}
+
+/** The API under /api: every route, then a JSON 404 and the one error handler. */
+function api(ctx: AppContext, options: AppOptions): express.Router {
+  const router = express.Router();
+  router.use('/health', healthRouter(ctx));
+  router.use(express.json({ limit: '1mb' }));
+  router.use(
+    sessionMiddleware({
+      pool: ctx.pool,
+      secret: ctx.config.sessionSecret,
+      idleMinutes: ctx.config.sessionIdleMinutes,
+      secure: ctx.config.behindHttps,
+      prune: options.pruneSessions ?? true,
+    }),
+  );
+  router.use(loadActor(ctx.db));
+  router.use(csrfGuard);
+  router.use((_req, res, next) => {
+    res.setHeader('Cache-Control', 'no-store');
+    next();
+  });
+  router.use('/auth', authRouter(ctx));
+  router.use('/invitations', invitationsRouter(ctx));
+  router.use('/account', accountRouter(ctx));
+  router.use('/members', membersRouter(ctx));
+  router.use('/dev/mail', devMailRouter(ctx));
+  router.use(jsonNotFound);
+  return router;
+}
+
+/** Serves the built client; index.html gets a fresh CSP nonce on every request. */
+function client(dir: string): express.Router {
+  const router = express.Router();
+  const indexFile = path.join(dir, 'index.html');
+  router.use(express.static(dir, { index: false, maxAge: '1h' }));
+  const sendIndex: RequestHandler = (_req, res) => {
+    if (!existsSync(indexFile)) {
+      res.status(503).type('text/plain').send('The client is not built yet. Run npm start or npm run build.');
+      return;
+    }
+    const nonce = res.locals.cspNonce as string;
+    res.setHeader('Cache-Control', 'no-cache');
+    res.type('html').send(readFileSync(indexFile, 'utf8').replaceAll('__CSP_NONCE__', nonce));
+  };
+  router.get('/*splat', sendIndex);
+  router.get('/', sendIndex);
+  return router;
+}
+
+export function createApp(ctx: AppContext, options: AppOptions = {}): Express {
+  const app = express();
+  app.disable('x-powered-by');
+  if (ctx.config.behindHttps) app.set('trust proxy', 1);
+  app.use((_req, res, next) => {
+    res.locals.cspNonce = randomBytes(16).toString('base64');
+    next();
+  });
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        useDefaults: false,
+        directives: {
+          defaultSrc: ["'self'"],
+          scriptSrc: ["'self'"],
+          styleSrc: ["'self'", (_req, res) => `'nonce-${(res as express.Response).locals.cspNonce}'`],
+          fontSrc: ["'self'"],
+          imgSrc: ["'self'", 'data:', 'blob:'],
+          connectSrc: ["'self'"],
+          objectSrc: ["'none'"],
+          frameSrc: ["'self'"],
+          frameAncestors: ["'none'"],
+          baseUri: ["'self'"],
+          formAction: ["'self'"],
+          ...(ctx.config.behindHttps ? { upgradeInsecureRequests: [] } : {}),
+        },
+      },
+      strictTransportSecurity: ctx.config.behindHttps,
+    }),
+  );
+  app.use('/api', api(ctx, options));
+  app.use(client(options.clientDir ?? clientDir));
+  app.use(errorHandler);
+  return app;
+}

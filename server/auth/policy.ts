@@ -1,0 +1,52 @@
+/**
+ * Who may do what: the one place every route asks. The client's guards and navigation only
+ * mirror these answers; hiding a button is never the protection.
+ */
+import type { Role } from '../../shared/schemas/common.js';
+import { forbidden } from '../http.js';
+
+/** The signed-in user as routes see it. */
+export interface Actor {
+  id: string;
+  email: string;
+  name: string;
+  role: Role;
+  schoolId: string;
+  schoolName: string;
+}
+
+/** School-wide actions and the roles allowed them. Record-level checks are functions below. */
+const ACTIONS = {
+  'members.manage': ['admin'],
+  'school.settings.edit': ['admin'],
+  'school.settings.read': ['admin', 'lead', 'teacher', 'relief'],
+  'dev-mail.read': ['admin'],
+  'account.edit': ['admin', 'lead', 'teacher', 'relief'],
+  'kits.read': ['admin', 'lead', 'teacher', 'relief'],
+  'kits.edit': ['admin', 'teacher'],
+  'tubs.audit': ['admin', 'teacher', 'relief'],
+  'classes.read': ['admin', 'lead', 'teacher'],
+  'classes.edit': ['admin', 'teacher'],
+  'outcomes.read': ['admin', 'lead', 'teacher'],
+  'outcomes.edit': ['admin', 'lead'],
+  'units.create': ['teacher'],
+  'units.read': ['lead', 'teacher'],
+  'units.review': ['lead'],
+} as const satisfies Record<string, readonly Role[]>;
+
+export type Action = keyof typeof ACTIONS;
+
+/** Whether the actor's role allows a school-wide action. */
+export function can(actor: Actor, action: Action): boolean {
+  return (ACTIONS[action] as readonly Role[]).includes(actor.role);
+}
+
+/** Throws 403 unless the actor may do the action. */
+export function authorize(actor: Actor, action: Action): void {
+  if (!can(actor, action)) throw forbidden();
+}
+
+/** Whether a record of some school may be seen at all by the actor (else it answers 404). */
+export function sameSchool(actor: Actor, schoolId: string): boolean {
+  return actor.schoolId === schoolId;
+}

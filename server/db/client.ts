@@ -1,0 +1,31 @@
+import { drizzle, type NodePgDatabase } from 'drizzle-orm/node-postgres';
+import { migrate } from 'drizzle-orm/node-postgres/migrator';
+import pg from 'pg';
+import { fileURLToPath } from 'node:url';
+import * as schema from './schema/index.js';
+
+export type Db = NodePgDatabase<typeof schema>;
+/** A database handle or an open transaction: both run the same queries. */
+export type Tx = Db | Parameters<Parameters<Db['transaction']>[0]>[0];
+
+export interface Database {
+  pool: pg.Pool;
+  db: Db;
+}
+
+/** Opens a pool and a Drizzle handle with snake_case columns. */
+export function openDatabase(url: string, max = 10): Database {
+  const pool = new pg.Pool({ connectionString: url, max });
+  // An idle client losing its connection must not crash the process.
+  pool.on('error', (err) => console.error('PostgreSQL pool error:', err.message));
+  return { pool, db: drizzle(pool, { schema, casing: 'snake_case' }) };
+}
+
+export const migrationsFolder = fileURLToPath(new URL('../../migrations', import.meta.url));
+
+/** Applies every committed migration not yet applied. */
+export async function runMigrations(db: Db): Promise<void> {
+  await migrate(db, { migrationsFolder });
+}
+
+export { schema };

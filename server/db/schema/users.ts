@@ -1,0 +1,48 @@
+import { index, pgTable, text, timestamp, uuid } from 'drizzle-orm/pg-core';
+import { schools } from './schools.js';
+
+/** A person with a role in one school. `status` is active, invited or deactivated. */
+export const users = pgTable(
+  'users',
+  {
+    id: uuid().primaryKey().defaultRandom(),
+    schoolId: uuid()
+      .notNull()
+      .references(() => schools.id, { onDelete: 'cascade' }),
+    /** Stored lower-case; unique across Trayplan since a person belongs to one school. */
+    email: text().notNull().unique(),
+    name: text().notNull().default(''),
+    role: text().notNull(),
+    status: text().notNull().default('active'),
+    /** PHC string of an argon2id hash; null until an invitation is accepted. */
+    passwordHash: text(),
+    lastSignInAt: timestamp({ withTimezone: true }),
+    createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index('users_school_idx').on(t.schoolId)],
+);
+
+/** One-time invitation links; only the SHA-256 of the token is stored. */
+export const invitations = pgTable('invitations', {
+  id: uuid().primaryKey().defaultRandom(),
+  userId: uuid()
+    .notNull()
+    .references(() => users.id, { onDelete: 'cascade' }),
+  tokenHash: text().notNull().unique(),
+  expiresAt: timestamp({ withTimezone: true }).notNull(),
+  usedAt: timestamp({ withTimezone: true }),
+  invitedBy: uuid().references(() => users.id, { onDelete: 'set null' }),
+  createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+});
+
+/** One-time password reset links; only the SHA-256 of the token is stored. */
+export const passwordResets = pgTable('password_resets', {
+  id: uuid().primaryKey().defaultRandom(),
+  userId: uuid()
+    .notNull()
+    .references(() => users.id, { onDelete: 'cascade' }),
+  tokenHash: text().notNull().unique(),
+  expiresAt: timestamp({ withTimezone: true }).notNull(),
+  usedAt: timestamp({ withTimezone: true }),
+  createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+});

@@ -1,0 +1,46 @@
+/** The words of every e-mail Trayplan sends. Plain text first; links on lines of their own. */
+import type { OutgoingMail } from './outbox.js';
+import { ROLE_LABELS, type Role } from '../../shared/schemas/common.js';
+
+export function invitationMail(
+  appUrl: string,
+  to: string,
+  schoolName: string,
+  role: Role,
+  inviter: string,
+  token: string,
+): OutgoingMail {
+  const link = `${appUrl}/invitation/${token}`;
+  return {
+    to,
+    subject: `You're invited to ${schoolName} on Trayplan`,
+    text: [
+      `Hello,`,
+      ``,
+      `${inviter} has invited you to join ${schoolName} on Trayplan as ${ROLE_LABELS[role].toLowerCase()}.`,
+      `Trayplan plans hands-on build lessons: parts for each group, charging and pack-away.`,
+      ``,
+      `Choose your name and password here:`,
+      link,
+      ``,
+      `The link works once and runs out in 7 days. If you did not expect this, ignore this message.`,
+    ].join('\n'),
+  };
+}
+
+export function resetMail(appUrl: string, to: string, name: string, token: string): OutgoingMail {
+  const link = `${appUrl}/reset/${token}`;
+  return {
+    to,
+    subject: 'Reset your Trayplan password',
+    text: [
+      `Hello ${name || 'there'},`,
+      ``,
+      `Someone asked to reset the password of your Trayplan account. To choose a new one, open:`,
+      link,
+      ``,
+      `The link works once and runs out in an hour. Using it signs you out everywhere.`,
+      `If you did not ask for this, ignore this message: your password stays as it is.`,
+    ].join('\n'),
+  };
+}

@@ -1,0 +1,85 @@
+/**
+ * Runs the app against an existing database: `DATABASE_URL` and `SMTP_URL` must be set
+ * (production). The start command (start.ts) wraps this with a local cluster and the mail fake.
+ */
+import type { Server } from 'node:http';
+import { loadConfig, type Config } from './config.js';
+import { openDatabase, runMigrations, type Database } from './db/client.js';
+import { createApp } from './app.js';
+import { createMailTransport, startOutboxWorker, type OutboxWorker } from './mail/outbox.js';
+import type { DevMail } from '../shared/schemas/members.js';
+
+export interface Running {
+  server: Server;
+  database: Database;
+  outbox: OutboxWorker;
+  /** Finishes in-flight requests, stops the outbox and closes the pool. */
+  close: () => Promise<void>;
+}
+
+export async function serve(
+  config: Config,
+  extra: { devMail?: () => DevMail[] } = {},
+): Promise<Running> {
+  if (!config.databaseUrl) throw new Error('DATABASE_URL is not set.');
+  if (!config.smtpUrl || config.smtpUrl === 'fake') {
+    throw new Error('SMTP_URL must name an SMTP server (smtp://host:port).');
+  }
+  const database = openDatabase(config.databaseUrl, 20);
+  await runMigrations(database.db);
+  const outbox = startOutboxWorker(database.db, createMailTransport(config.smtpUrl), config.mailFrom);
+  const app = createApp({
+    db: database.db,
+    pool: database.pool,
+    config,
+    kickMail: () => void outbox.kick(),
+    devMail: extra.devMail,
+  });
+  const server = await new Promise<Server>((resolve, reject) => {
+    const s = app.listen(config.port, config.host, () => resolve(s));
+    s.once('error', reject);
+  });
+  void outbox.kick();
+  let closing: Promise<void> | null = null;
+  return {
+    server,
+    database,
+    outbox,
+    close: () =>
+      (closing ??= (async () => {
+        await new Promise<void>((resolve) => {
+          server.close(() => resolve());
+          server.closeIdleConnections();
+          // Requests still running after 10 s are cut so a stop never hangs.
+          setTimeout(() => server.closeAllConnections(), 10_000).unref();
+        });
+        await outbox.stop();
+        await database.pool.end();
+      })()),
+  };
+}
+
+/** Stops cleanly on SIGINT and SIGTERM, then runs `after` (stopping the cluster, say). */
+export function stopOnSignals(running: Running, after: () => Promise<void> | void = () => {}): void {
+  let stopping = false;
+  const stop = async (signal: string) => {
+    if (stopping) return;
+    stopping = true;
+    console.log(`\n${signal}: stopping Trayplan…`);
+    try {
+      await running.close();
+      await after();
+    } finally {
+      process.exit(0);
+    }
+  };
+  process.on('SIGINT', () => void stop('SIGINT'));
+  process.on('SIGTERM', () => void stop('SIGTERM'));
+}
+
+const isEntry = import.meta.url === `file://${process.argv[1]}`;
+if (isEntry) {
+  const running = await serve(loadConfig());
+  console.log(`Trayplan listening on http://${running.server.address() && loadConfig().host}:${loadConfig().port}`);
+  stopOnSignals(running);
+}

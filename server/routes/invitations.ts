@@ -1,0 +1,81 @@
+import { Router } from 'express';
+import { and, eq, gt, isNull, sql } from 'drizzle-orm';
+import { z } from 'zod';
+import type { AppContext } from '../context.js';
+import { invitations, schools, users } from '../db/schema/index.js';
+import { HttpError, parse } from '../http.js';
+import { hashPassword, passwordProblem } from '../auth/passwords.js';
+import { hashToken } from '../auth/tokens.js';
+import { signInAs } from './auth.js';
+import { acceptInvitationSchema } from '../../shared/schemas/auth.js';
+
+const tokenParams = z.object({ token: z.string().min(10).max(200) });
+const invalid = () =>
+  new HttpError(404, 'invitation-invalid', 'This invitation has been used or has run out. Ask your school admin for a new one.');
+
+export function invitationsRouter(ctx: AppContext): Router {
+  const router = Router();
+
+  async function find(token: string) {
+    const [row] = await ctx.db
+      .select({
+        id: invitations.id,
+        userId: users.id,
+        email: users.email,
+        role: users.role,
+        schoolName: schools.name,
+        expiresAt: invitations.expiresAt,
+      })
+      .from(invitations)
+      .innerJoin(users, eq(users.id, invitations.userId))
+      .innerJoin(schools, eq(schools.id, users.schoolId))
+      .where(
+        and(
+          eq(invitations.tokenHash, hashToken(token)),
+          isNull(invitations.usedAt),
+          gt(invitations.expiresAt, sql`now()`),
+          eq(users.status, 'invited'),
+        ),
+      );
+    return row;
+  }
+
+  router.get('/:token', async (req, res) => {
+    const parsed = tokenParams.safeParse(req.params);
+    const row = parsed.success ? await find(parsed.data.token) : undefined;
+    if (!row) throw invalid();
+    res.json({
+      email: row.email,
+      role: row.role,
+      schoolName: row.schoolName,
+      expiresAt: row.expiresAt.toISOString(),
+    });
+  });
+
+  router.post('/:token/accept', async (req, res) => {
+    const parsed = tokenParams.safeParse(req.params);
+    const row = parsed.success ? await find(parsed.data.token) : undefined;
+    if (!row) throw invalid();
+    const body = parse(acceptInvitationSchema, req.body);
+    const problem = passwordProblem(body.password, row.email);
+    if (problem) throw new HttpError(400, 'password-common', problem, [{ path: 'password', message: problem }]);
+    const passwordHash = await hashPassword(body.password);
+    const accepted = await ctx.db.transaction(async (tx) => {
+      // The status condition makes a second, concurrent acceptance of the same link change nothing.
+      const done = await tx
+        .update(users)
+        .set({ name: body.name, passwordHash, status: 'active' })
+        .where(and(eq(users.id, row.userId), eq(users.status, 'invited')))
+        .returning({ id: users.id });
+      await tx
+        .update(invitations)
+        .set({ usedAt: sql`now()` })
+        .where(and(eq(invitations.userId, row.userId), isNull(invitations.usedAt)));
+      return done.length === 1;
+    });
+    if (!accepted) throw invalid();
+    res.json({ user: await signInAs(ctx, req, res, row.userId) });
+  });
+
+  return router;
+}

@@ -1,0 +1,1 @@
+export { seedDemo, addSeedStep, DEMO_ACCOUNTS, DEMO_PASSWORD } from './demo.js';
