@@ -15,6 +15,14 @@ import { devMailRouter } from './routes/dev-mail.js';
 import { healthRouter } from './routes/health.js';
 import { invitationsRouter } from './routes/invitations.js';
 import { membersRouter } from './routes/members.js';
+import { schoolRouter } from './routes/school.js';
+import { classesRouter } from './routes/classes.js';
+import { kitTypesRouter } from './routes/kit-types.js';
+import { tubsRouter } from './routes/tubs.js';
+import { outcomesRouter } from './routes/outcomes.js';
+import { unitsRouter } from './routes/units.js';
+import { lessonsRouter } from './routes/lessons.js';
+import { activitiesRouter } from './routes/activities.js';
 
 export const clientDir = fileURLToPath(new URL('../dist/trayplan/browser', import.meta.url));
 
@@ -50,6 +58,14 @@ function api(ctx: AppContext, options: AppOptions): express.Router {
   router.use('/account', accountRouter(ctx));
   router.use('/members', membersRouter(ctx));
   router.use('/dev/mail', devMailRouter(ctx));
+  router.use('/school', schoolRouter(ctx));
+  router.use('/classes', classesRouter(ctx));
+  router.use('/kit-types', kitTypesRouter(ctx));
+  router.use('/tubs', tubsRouter(ctx));
+  router.use('/outcomes', outcomesRouter(ctx));
+  router.use('/units', unitsRouter(ctx));
+  router.use('/lessons', lessonsRouter(ctx));
+  router.use('/activities', activitiesRouter(ctx));
   router.use(jsonNotFound);
   return router;
 }

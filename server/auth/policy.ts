@@ -50,3 +50,47 @@ export function authorize(actor: Actor, action: Action): void {
 export function sameSchool(actor: Actor, schoolId: string): boolean {
   return actor.schoolId === schoolId;
 }
+
+/** What the unit rules need to know of a unit. */
+export interface UnitFacts {
+  schoolId: string;
+  ownerId: string;
+  /** private or school. */
+  visibility: string;
+  coauthorIds: readonly string[];
+}
+
+/** Whether the actor authors the unit (owner or co-author, and still a teacher). */
+export function authorsUnit(actor: Actor, unit: UnitFacts): boolean {
+  return (
+    sameSchool(actor, unit.schoolId) &&
+    actor.role === 'teacher' &&
+    (unit.ownerId === actor.id || unit.coauthorIds.includes(actor.id))
+  );
+}
+
+/**
+ * Who reads a unit: its authors; other teachers when it is shared with the school; leads always.
+ * Admins and relief teachers do not read units (relief reads the lessons assigned to them).
+ */
+export function canReadUnit(actor: Actor, unit: UnitFacts): boolean {
+  if (!sameSchool(actor, unit.schoolId)) return false;
+  if (actor.role === 'lead') return true;
+  if (actor.role !== 'teacher') return false;
+  return authorsUnit(actor, unit) || unit.visibility === 'school';
+}
+
+/** Owners and co-authors edit a unit, its lessons and activities. */
+export function canEditUnit(actor: Actor, unit: UnitFacts): boolean {
+  return authorsUnit(actor, unit);
+}
+
+/** Reading a lesson: as reading its unit, or the relief teacher it is assigned to. */
+export function canReadLesson(
+  actor: Actor,
+  unit: UnitFacts,
+  lesson: { reliefTeacherId: string | null },
+): boolean {
+  if (canReadUnit(actor, unit)) return true;
+  return sameSchool(actor, unit.schoolId) && actor.role === 'relief' && lesson.reliefTeacherId === actor.id;
+}

@@ -2,3 +2,8 @@ export * from './schools.js';
 export * from './users.js';
 export * from './sessions.js';
 export * from './outbox.js';
+export * from './school.js';
+export * from './classes.js';
+export * from './kits.js';
+export * from './outcomes.js';
+export * from './units.js';

@@ -1,0 +1,7 @@
+import { Router } from 'express';
+import type { AppContext } from '../context.js';
+
+/** Placeholder until the planning routes land. */
+export function classesRouter(_ctx: AppContext): Router {
+  return Router();
+}
