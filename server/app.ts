@@ -23,6 +23,9 @@ import { outcomesRouter } from './routes/outcomes.js';
 import { unitsRouter } from './routes/units.js';
 import { lessonsRouter } from './routes/lessons.js';
 import { activitiesRouter } from './routes/activities.js';
+import { prepRouter } from './routes/prep.js';
+import { agendaRouter, conflictsRouter } from './routes/agenda.js';
+import { replacementsRouter } from './routes/replacements.js';
 
 export const clientDir = fileURLToPath(new URL('../dist/trayplan/browser', import.meta.url));
 
@@ -60,10 +63,14 @@ function api(ctx: AppContext, options: AppOptions): express.Router {
   router.use('/dev/mail', devMailRouter(ctx));
   router.use('/school', schoolRouter(ctx));
   router.use('/classes', classesRouter(ctx));
+  router.use('/kit-types', replacementsRouter(ctx));
   router.use('/kit-types', kitTypesRouter(ctx));
   router.use('/tubs', tubsRouter(ctx));
   router.use('/outcomes', outcomesRouter(ctx));
   router.use('/units', unitsRouter(ctx));
+  router.use('/agenda', agendaRouter(ctx));
+  router.use('/conflicts', conflictsRouter(ctx));
+  router.use('/lessons', prepRouter(ctx));
   router.use('/lessons', lessonsRouter(ctx));
   router.use('/activities', activitiesRouter(ctx));
   router.use(jsonNotFound);

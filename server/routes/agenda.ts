@@ -1,0 +1,225 @@
+/**
+ * Across lessons (PREP-RULES.md, last section): the weekly prep agenda, booking conflicts and
+ * recharge gaps of a school, built from the same engine as each lesson's prep plan.
+ */
+import { Router } from 'express';
+import { and, asc, eq, gte, inArray, lt } from 'drizzle-orm';
+import { DateTime } from 'luxon';
+import { z } from 'zod';
+import type { AppContext } from '../context.js';
+import type { Tx } from '../db/client.js';
+import {
+  classes, lessonTubs, lessons, parts, schools, tubs, unitCoauthors, units,
+} from '../db/schema/index.js';
+import { parse } from '../http.js';
+import { requireActor } from '../auth/session.js';
+import { authorsUnit, canReadLesson, type Actor } from '../auth/policy.js';
+import { computePrepPlan, intervalsOverlap, type PrepPlan } from '../../shared/prep/index.js';
+import { loadPrepInput, toLocal } from '../prep/load.js';
+
+const weekQuery = z.object({
+  week: z
+    .string()
+    .regex(/^\d{4}-\d{2}-\d{2}$/, 'Give the week as a date like 2026-07-27.')
+    .refine((d) => DateTime.fromISO(d).isValid, 'That date does not exist.'),
+  mine: z.enum(['true', 'false']).optional(),
+});
+
+interface LessonRow {
+  id: string;
+  title: string;
+  startsAt: string;
+  endsAt: string;
+  unitId: string;
+  unitTitle: string;
+  className: string;
+  ownerId: string;
+  visibility: string;
+  reliefTeacherId: string | null;
+  kitTypeId: string;
+}
+
+/** Lessons of the school in [from, to) (local dates) that the actor may read, in time order. */
+async function readableLessons(tx: Tx, actor: Actor, from: string, to: string, mine: boolean) {
+  const rows: LessonRow[] = await tx
+    .select({
+      id: lessons.id,
+      title: lessons.title,
+      startsAt: lessons.startsAt,
+      endsAt: lessons.endsAt,
+      unitId: units.id,
+      unitTitle: units.title,
+      className: classes.name,
+      ownerId: units.ownerId,
+      visibility: units.visibility,
+      reliefTeacherId: lessons.reliefTeacherId,
+      kitTypeId: lessons.kitTypeId,
+    })
+    .from(lessons)
+    .innerJoin(units, eq(units.id, lessons.unitId))
+    .innerJoin(classes, eq(classes.id, lessons.classId))
+    .where(and(eq(lessons.schoolId, actor.schoolId), gte(lessons.startsAt, from), lt(lessons.startsAt, to)))
+    .orderBy(asc(lessons.startsAt));
+  const unitIds = [...new Set(rows.map((r) => r.unitId))];
+  const co = unitIds.length
+    ? await tx.select().from(unitCoauthors).where(inArray(unitCoauthors.unitId, unitIds))
+    : [];
+  return rows.filter((r) => {
+    const facts = {
+      schoolId: actor.schoolId,
+      ownerId: r.ownerId,
+      visibility: r.visibility,
+      coauthorIds: co.filter((c) => c.unitId === r.unitId).map((c) => c.userId),
+    };
+    if (!canReadLesson(actor, facts, r)) return false;
+    if (!mine) return true;
+    return authorsUnit(actor, facts) || r.reliefTeacherId === actor.id;
+  });
+}
+
+function lessonSummary(r: LessonRow) {
+  return {
+    id: r.id,
+    title: r.title,
+    unitId: r.unitId,
+    unitTitle: r.unitTitle,
+    className: r.className,
+    startsAt: toLocal(r.startsAt),
+    endsAt: toLocal(r.endsAt),
+  };
+}
+
+export function agendaRouter(ctx: AppContext): Router {
+  const router = Router();
+
+  // GET /api/agenda?week=YYYY-MM-DD[&mine=true]: every prep task of the week in time order.
+  router.get('/', async (req, res) => {
+    const actor = requireActor(req);
+    const q = parse(weekQuery, req.query);
+    const monday = DateTime.fromISO(q.week).startOf('week');
+    const from = monday.toISODate()!;
+    const to = monday.plus({ days: 7 }).toISODate()!;
+    const result = await ctx.db.transaction(
+      async (tx) => {
+        const rows = await readableLessons(tx, actor, from, to, q.mine === 'true');
+        const out = [];
+        for (const r of rows) {
+          const input = await loadPrepInput(tx, r.id);
+          let plan: PrepPlan | null = null;
+          try {
+            plan = input ? computePrepPlan(input) : null;
+          } catch {
+            plan = null; // a lesson the engine cannot plan yet shows without tasks
+          }
+          out.push({ lesson: lessonSummary(r), plan });
+        }
+        return out;
+      },
+      { isolationLevel: 'repeatable read', accessMode: 'read only' },
+    );
+    const tasks = result
+      .flatMap(({ lesson, plan }) => (plan?.tasks ?? []).map((task) => ({ ...task, lesson })))
+      .sort((a, b) => Date.parse(a.startBy) - Date.parse(b.startBy));
+    type Attention = { lesson: ReturnType<typeof lessonSummary>; kind: string; message: string };
+    const attention = result.flatMap(({ lesson, plan }): Attention[] =>
+      plan
+        ? [
+            ...plan.shortfalls.map((s) => ({ lesson, kind: 'shortfall', message: `${s.needed - s.allocated} × ${s.partCode} short${s.group ? ` for group ${s.group}` : ' in the class tray'}.` })),
+            ...plan.warnings.map((w) => ({ lesson, kind: w.code, message: w.message })),
+          ]
+        : [{ lesson, kind: 'not-plannable', message: 'This lesson cannot be planned yet.' }],
+    );
+    res.json({
+      week: from,
+      lessons: result.map((r) => ({ ...r.lesson, groups: r.plan?.totals.groups ?? null, shortfalls: r.plan?.shortfalls.length ?? 0 })),
+      tasks,
+      attention,
+    });
+  });
+
+  return router;
+}
+
+const rangeQuery = z.object({
+  from: z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'Give a date like 2026-07-20.'),
+  to: z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'Give a date like 2026-09-25.'),
+});
+
+/** GET /api/conflicts?from=&to=: booking conflicts and recharge gaps of the school. */
+export function conflictsRouter(ctx: AppContext): Router {
+  const router = Router();
+  router.get('/', async (req, res) => {
+    const actor = requireActor(req);
+    const q = parse(rangeQuery, req.query);
+    const [school] = await ctx.db.select().from(schools).where(eq(schools.id, actor.schoolId));
+    const zone = school!.timezone;
+    const rows = await readableLessons(ctx.db, actor, q.from, q.to, false);
+    const ids = rows.map((r) => r.id);
+    const bookings = ids.length
+      ? await ctx.db
+          .select({ lessonId: lessonTubs.lessonId, tubId: tubs.id, label: tubs.label })
+          .from(lessonTubs)
+          .innerJoin(tubs, eq(tubs.id, lessonTubs.tubId))
+          .where(inArray(lessonTubs.lessonId, ids))
+      : [];
+    const chargeRows = rows.length
+      ? await ctx.db
+          .select({ kitTypeId: parts.kitTypeId, minutes: parts.chargeMinutes, name: parts.name })
+          .from(parts)
+          .where(inArray(parts.kitTypeId, [...new Set(rows.map((r) => r.kitTypeId))]))
+      : [];
+    const instant = (local: string) => DateTime.fromISO(toLocal(local), { zone }).toMillis();
+    const byTub = new Map<string, { label: string; lessons: LessonRow[] }>();
+    const byId = new Map(rows.map((r) => [r.id, r]));
+    for (const b of bookings) {
+      const entry = byTub.get(b.tubId) ?? { label: b.label, lessons: [] };
+      entry.lessons.push(byId.get(b.lessonId)!);
+      byTub.set(b.tubId, entry);
+    }
+    const conflicts = new Map<string, { a: LessonRow; b: LessonRow; tubs: string[] }>();
+    const gaps = [];
+    for (const { label, lessons: list } of byTub.values()) {
+      list.sort((x, y) => instant(x.startsAt) - instant(y.startsAt));
+      for (let i = 0; i < list.length; i++) {
+        for (let j = i + 1; j < list.length; j++) {
+          const a = list[i]!;
+          const b = list[j]!;
+          const overlap = intervalsOverlap(
+            { startsAt: instant(a.startsAt), endsAt: instant(a.endsAt) },
+            { startsAt: instant(b.startsAt), endsAt: instant(b.endsAt) },
+          );
+          if (!overlap) break;
+          const key = `${a.id}|${b.id}`;
+          const c = conflicts.get(key) ?? { a, b, tubs: [] };
+          c.tubs.push(label);
+          conflicts.set(key, c);
+        }
+        const next = list[i + 1];
+        if (next) {
+          const a = list[i]!;
+          const between = (instant(next.startsAt) - instant(a.endsAt)) / 60_000;
+          const full = Math.max(0, ...chargeRows.filter((p) => p.kitTypeId === a.kitTypeId && p.minutes).map((p) => p.minutes!));
+          if (full > 0 && between >= 0 && between < full) {
+            gaps.push({
+              tub: label,
+              before: lessonSummary(a),
+              after: lessonSummary(next),
+              minutesBetween: between,
+              fullChargeMinutes: full,
+              message: `${label} has ${between} minutes between "${a.title}" and "${next.title}"; a full charge takes ${full}.`,
+            });
+          }
+        }
+      }
+    }
+    res.json({
+      conflicts: [...conflicts.values()].map((c) => ({
+        lessons: [lessonSummary(c.a), lessonSummary(c.b)],
+        tubs: c.tubs.sort(),
+        message: `"${c.a.title}" and "${c.b.title}" overlap and both book ${c.tubs.sort().join(', ')}.`,
+      })),
+      rechargeGaps: gaps,
+    });
+  });
+  return router;
+}
