@@ -24,6 +24,7 @@ import { unitsRouter } from './routes/units.js';
 import { lessonsRouter } from './routes/lessons.js';
 import { activitiesRouter } from './routes/activities.js';
 import { prepRouter } from './routes/prep.js';
+import { printablesRouter } from './routes/printables.js';
 import { agendaRouter, conflictsRouter } from './routes/agenda.js';
 import { replacementsRouter } from './routes/replacements.js';
 
@@ -70,6 +71,7 @@ function api(ctx: AppContext, options: AppOptions): express.Router {
   router.use('/units', unitsRouter(ctx));
   router.use('/agenda', agendaRouter(ctx));
   router.use('/conflicts', conflictsRouter(ctx));
+  router.use(printablesRouter(ctx));
   router.use('/lessons', prepRouter(ctx));
   router.use('/lessons', lessonsRouter(ctx));
   router.use('/activities', activitiesRouter(ctx));
