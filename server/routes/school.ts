@@ -1,7 +1,222 @@
+/**
+ * School settings under /api/school: name, timezone, paper size, prep allowances and the
+ * calendar. Everyone of the school reads them (lesson times and prep plans depend on them);
+ * only an admin saves them, all at once, with the version they read.
+ */
 import { Router } from 'express';
+import { and, asc, eq, inArray, notInArray, sql } from 'drizzle-orm';
 import type { AppContext } from '../context.js';
+import type { Tx } from '../db/client.js';
+import {
+  bellPeriods,
+  nonTeachingDays,
+  schools,
+  schoolSettings,
+  terms,
+} from '../db/schema/index.js';
+import { HttpError, notFound, parse } from '../http.js';
+import { authorize } from '../auth/policy.js';
+import { requireActor } from '../auth/session.js';
+import {
+  DEFAULT_PREP,
+  prepAllowancesSchema,
+  schoolSettingsUpdateSchema,
+  timeZoneNames,
+  type PaperSize,
+  type PrepAllowances,
+  type SchoolSettings,
+} from '../../shared/schemas/school.js';
 
-/** Placeholder until the planning routes land. */
-export function schoolRouter(_ctx: AppContext): Router {
-  return Router();
+/**
+ * Stored allowances over the defaults, key by key: a key that is missing, or that an older
+ * release stored out of today's range, takes its default rather than breaking every prep plan.
+ */
+export function mergePrep(stored: unknown): PrepAllowances {
+  const merged: PrepAllowances = { ...DEFAULT_PREP };
+  if (stored && typeof stored === 'object') {
+    for (const key of Object.keys(DEFAULT_PREP) as (keyof PrepAllowances)[]) {
+      const field = prepAllowancesSchema.shape[key].safeParse(
+        (stored as Record<string, unknown>)[key],
+      );
+      if (field.success) merged[key] = field.data;
+    }
+  }
+  return merged;
+}
+
+/** The settings as GET /api/school answers them (a missing settings row is version 1). */
+export async function loadSchoolSettings(tx: Tx, schoolId: string): Promise<SchoolSettings> {
+  const [school] = await tx.select().from(schools).where(eq(schools.id, schoolId));
+  if (!school) throw notFound('That school');
+  const [settings] = await tx
+    .select()
+    .from(schoolSettings)
+    .where(eq(schoolSettings.schoolId, schoolId));
+  const termRows = await tx
+    .select()
+    .from(terms)
+    .where(eq(terms.schoolId, schoolId))
+    .orderBy(asc(terms.startsOn));
+  const periodRows = await tx
+    .select()
+    .from(bellPeriods)
+    .where(eq(bellPeriods.schoolId, schoolId))
+    .orderBy(asc(bellPeriods.position), asc(bellPeriods.startsAt));
+  const dayRows = await tx
+    .select()
+    .from(nonTeachingDays)
+    .where(eq(nonTeachingDays.schoolId, schoolId))
+    .orderBy(asc(nonTeachingDays.date));
+  return {
+    id: school.id,
+    name: school.name,
+    timezone: school.timezone,
+    paperSize: (school.paperSize === 'Letter' ? 'Letter' : 'A4') as PaperSize,
+    prep: mergePrep(settings?.prep),
+    terms: termRows.map((t) => ({
+      id: t.id,
+      name: t.name,
+      startsOn: t.startsOn,
+      endsOn: t.endsOn,
+    })),
+    periods: periodRows.map((p) => ({
+      id: p.id,
+      name: p.name,
+      startsAt: p.startsAt,
+      endsAt: p.endsAt,
+    })),
+    nonTeachingDays: dayRows.map((d) => ({ id: d.id, date: d.date, reason: d.reason })),
+    version: settings?.version ?? 1,
+  };
+}
+
+/** Ids the form sent that really are this school's rows; any other id is treated as new. */
+async function keptIds(
+  tx: Tx,
+  table: typeof terms | typeof bellPeriods | typeof nonTeachingDays,
+  schoolId: string,
+  sent: (string | undefined)[],
+) {
+  const ids = sent.filter((x): x is string => !!x);
+  if (!ids.length) return new Set<string>();
+  const rows = await tx
+    .select({ id: table.id })
+    .from(table)
+    .where(and(eq(table.schoolId, schoolId), inArray(table.id, ids)));
+  return new Set(rows.map((r) => r.id));
+}
+
+type Update = ReturnType<typeof schoolSettingsUpdateSchema.parse>;
+
+/**
+ * Saves the calendar lists. Rows keep their ids when the form sent them back: lessons point at
+ * bell periods, and deleting and re-adding a period would unlink every lesson booked in it.
+ */
+async function saveCalendar(tx: Tx, schoolId: string, body: Update): Promise<void> {
+  const termIds = await keptIds(
+    tx,
+    terms,
+    schoolId,
+    body.terms.map((t) => t.id),
+  );
+  await tx
+    .delete(terms)
+    .where(and(eq(terms.schoolId, schoolId), notInArray(terms.id, [...termIds])));
+  for (const t of body.terms) {
+    const values = { name: t.name, startsOn: t.startsOn, endsOn: t.endsOn };
+    if (t.id && termIds.has(t.id)) await tx.update(terms).set(values).where(eq(terms.id, t.id));
+    else await tx.insert(terms).values({ schoolId, ...values });
+  }
+
+  const periodIds = await keptIds(
+    tx,
+    bellPeriods,
+    schoolId,
+    body.periods.map((p) => p.id),
+  );
+  await tx
+    .delete(bellPeriods)
+    .where(and(eq(bellPeriods.schoolId, schoolId), notInArray(bellPeriods.id, [...periodIds])));
+  const ordered = [...body.periods].sort((a, b) => a.startsAt.localeCompare(b.startsAt));
+  for (const [position, p] of ordered.entries()) {
+    const values = { position, name: p.name, startsAt: p.startsAt, endsAt: p.endsAt };
+    if (p.id && periodIds.has(p.id))
+      await tx.update(bellPeriods).set(values).where(eq(bellPeriods.id, p.id));
+    else await tx.insert(bellPeriods).values({ schoolId, ...values });
+  }
+
+  const dayIds = await keptIds(
+    tx,
+    nonTeachingDays,
+    schoolId,
+    body.nonTeachingDays.map((d) => d.id),
+  );
+  await tx
+    .delete(nonTeachingDays)
+    .where(
+      and(eq(nonTeachingDays.schoolId, schoolId), notInArray(nonTeachingDays.id, [...dayIds])),
+    );
+  for (const d of body.nonTeachingDays) {
+    const values = { date: d.date, reason: d.reason };
+    if (d.id && dayIds.has(d.id))
+      await tx.update(nonTeachingDays).set(values).where(eq(nonTeachingDays.id, d.id));
+    else await tx.insert(nonTeachingDays).values({ schoolId, ...values });
+  }
+}
+
+/** GET /, GET /timezones and PUT / under /api/school. */
+export function schoolRouter(ctx: AppContext): Router {
+  const router = Router();
+
+  router.get('/', async (req, res) => {
+    const actor = requireActor(req);
+    authorize(actor, 'school.settings.read');
+    res.json({ school: await loadSchoolSettings(ctx.db, actor.schoolId) });
+  });
+
+  /** The IANA zone names for the searchable select. */
+  router.get('/timezones', (req, res) => {
+    requireActor(req);
+    res.json({ timezones: timeZoneNames() });
+  });
+
+  router.put('/', async (req, res) => {
+    const actor = requireActor(req);
+    authorize(actor, 'school.settings.edit');
+    const body = parse(schoolSettingsUpdateSchema, req.body);
+    const school = await ctx.db.transaction(async (tx) => {
+      // A school without a settings row is at version 1: make the row, so the check can lock it.
+      await tx.insert(schoolSettings).values({ schoolId: actor.schoolId }).onConflictDoNothing();
+      const saved = await tx
+        .update(schoolSettings)
+        .set({ prep: body.prep, version: sql`${schoolSettings.version} + 1` })
+        .where(
+          and(
+            eq(schoolSettings.schoolId, actor.schoolId),
+            eq(schoolSettings.version, body.version),
+          ),
+        )
+        .returning({ version: schoolSettings.version });
+      if (!saved.length) {
+        const current = await loadSchoolSettings(tx, actor.schoolId);
+        throw new HttpError(
+          409,
+          'stale',
+          'Someone saved the school settings after you opened them. ' +
+            'Reload to see their changes, then make yours again.',
+          undefined,
+          { current },
+        );
+      }
+      await tx
+        .update(schools)
+        .set({ name: body.name, timezone: body.timezone, paperSize: body.paperSize })
+        .where(eq(schools.id, actor.schoolId));
+      await saveCalendar(tx, actor.schoolId, body);
+      return loadSchoolSettings(tx, actor.schoolId);
+    });
+    res.json({ school });
+  });
+
+  return router;
 }
