@@ -24,13 +24,6 @@ export interface BorrowRecord {
   qty: number;
 }
 
-export interface Allocation {
-  groups: GroupAllocation[];
-  borrows: BorrowRecord[];
-  /** Pieces left after all four steps, laid out like `pool.stock`. */
-  remaining: Float64Array;
-}
-
 /**
  * Takes up to `need` pieces of part p from the tubs with the most remaining (ties by label
  * order, i.e. by index), skipping tub `skip`. Writes each draw as (tub, qty) into `picks` and
@@ -131,60 +124,31 @@ export function allocateGroups(
 }
 
 /**
- * Whether groups of these sizes all get every part (R6's test). A part whose total demand is
- * over the usable stock rules the sizes out at once (allocation never takes more than there
- * is); otherwise the same steps as `allocateGroups` run, without building lines, stopping at
- * the first part left short.
+ * Whether groups of these sizes all get every part (R6's test), without allocating: under R5 a
+ * group is short of a part exactly when the groups' total demand for it is over its usable
+ * stock. Over: allocation never takes more than there is. Not over: a group is short only once
+ * every tub is out of the part, so the groups have taken all the stock, yet less than their
+ * total demand (this group still misses some), a contradiction. Parts do not affect each other.
+ * The property tests check this against full allocations.
  */
 export function groupsFit(
   model: DemandModel,
-  pool: TubPool,
   sizes: readonly number[],
   cache: Map<number, SizeDemand>,
   usable: Float64Array,
 ): boolean {
-  const stride = pool.partCount;
   const gp = model.groupParts;
-  const k = gp.length;
-  const demands = sizes.map((size) => demandForSize(model, size, cache).needed);
-  for (let j = 0; j < k; j++) {
+  // Balanced sizes take at most two values: count the groups of each.
+  const counts = new Map<number, number>();
+  for (const size of sizes) counts.set(size, (counts.get(size) ?? 0) + 1);
+  const demands = [...counts].map(([size, n]) => ({
+    n,
+    needed: demandForSize(model, size, cache).needed,
+  }));
+  for (let j = 0; j < gp.length; j++) {
     let total = 0;
-    for (let g = 0; g < demands.length; g++) total += demands[g]![j]!;
+    for (const d of demands) total += d.n * d.needed[j]!;
     if (total > usable[gp[j]!]!) return false;
-  }
-  const remaining = pool.stock.slice();
-  const missing = new Float64Array(sizes.length * k);
-  let anyMissing = false;
-  for (let g = 0; g < sizes.length; g++) {
-    const home = homeTubIndex(pool, g);
-    const needed = demands[g]!;
-    for (let j = 0; j < k; j++) {
-      const need = needed[j]!;
-      let got = 0;
-      if (home >= 0) {
-        const at = home * stride + gp[j]!;
-        const left = remaining[at]!;
-        got = left < need ? left : need;
-        remaining[at] = left - got;
-      }
-      if (need > got) {
-        missing[g * k + j] = need - got;
-        anyMissing = true;
-      }
-    }
-  }
-  if (!anyMissing) return true;
-  const picks: number[] = [];
-  for (let g = 0; g < sizes.length; g++) {
-    const home = homeTubIndex(pool, g);
-    for (let j = 0; j < k; j++) {
-      const need = missing[g * k + j]!;
-      if (need <= 0) continue;
-      const draws = takeFromFullest(remaining, pool, gp[j]!, need, home, picks);
-      let got = 0;
-      for (let d = 0; d < draws; d++) got += picks[2 * d + 1]!;
-      if (got < need) return false;
-    }
   }
   return true;
 }

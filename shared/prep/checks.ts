@@ -101,6 +101,7 @@ function checkParts(input: Obj, out: CrossIssue[]): Map<string, true> {
 function checkTubs(input: Obj, codes: Map<string, true>, out: CrossIssue[]): void {
   const labels = new Set<string>();
   const ids = new Set<string>();
+  const codeList = [...codes.keys()];
   arr(input['tubs']).forEach((t, i) => {
     if (!isObj(t)) return;
     const label = str(t['label'])?.trim();
@@ -117,7 +118,7 @@ function checkTubs(input: Obj, codes: Map<string, true>, out: CrossIssue[]): voi
       }
       ids.add(id);
     }
-    checkStock(t['stock'], label || 'A tub', codes, ['tubs', i, 'stock'], out);
+    checkStock(t['stock'], label || 'A tub', codes, codeList, ['tubs', i, 'stock'], out);
   });
 }
 
@@ -148,12 +149,13 @@ function checkStock(
   stock: unknown,
   label: string,
   codes: Map<string, true>,
+  codeList: readonly string[],
   path: (string | number)[],
   out: CrossIssue[],
 ): void {
   if (!isObj(stock)) return;
   let found = 0;
-  for (const code of codes.keys()) {
+  for (const code of codeList) {
     const v = ownValue(stock, code);
     if (v === undefined) continue;
     found++;

@@ -8,19 +8,18 @@ import type { TubPool } from './pool.js';
 
 /**
  * The largest n' < n whose balanced groups (each at most 8) all get every part, or null.
- * Fitting is not monotone in n' (home tubs move), so every count is tried from n − 1 down;
- * each try is linear in groups × part lines and stops at its first missing part.
+ * Fitting need not be monotone in n' (per-group and per-student demand grow differently), so
+ * every count is tried from n − 1 down; each try is linear in the part lines.
  */
 export function largestFittingGroupCount(
   model: DemandModel,
-  pool: TubPool,
   students: number,
   n: number,
   cache: Map<number, SizeDemand>,
   usable: Float64Array,
 ): number | null {
   for (let m = n - 1; m >= fewestGroups(students); m--) {
-    if (groupsFit(model, pool, balancedSizes(students, m), cache, usable)) return m;
+    if (groupsFit(model, balancedSizes(students, m), cache, usable)) return m;
   }
   return null;
 }

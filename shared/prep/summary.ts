@@ -98,7 +98,7 @@ export function summarise(x: SummaryInput): Summary {
   const students = x.input.class.studentCount;
   const suggestions: PrepSuggestion[] = [];
   if (groupShort) {
-    const m = largestFittingGroupCount(model, pool, students, n, x.cache, x.usable);
+    const m = largestFittingGroupCount(model, students, n, x.cache, x.usable);
     if (m !== null) suggestions.push(groupSuggestion(m, students));
   }
   for (const p of [...shortParts].sort((a, b) => a - b)) {

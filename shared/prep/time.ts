@@ -84,8 +84,9 @@ export function localToInstant(local: string, zone: string): number | null {
   if (t.getUTCMinutes() !== mi || t.getUTCFullYear() !== y) return null;
   const before = offsetMinutes(zone, wall - DAY_MS);
   const after = offsetMinutes(zone, wall + DAY_MS);
-  // The larger offset gives the earlier instant, so try it first; a time in a gap fits neither.
-  for (const off of before >= after ? [before, after] : [after, before]) {
+  // A repeated hour only happens when the offset drops, so the offset before the change gives
+  // its earlier instant: try it first. A time in a skipped hour fits neither.
+  for (const off of [before, after]) {
     const ms = wall - off * MINUTE_MS;
     if (offsetMinutes(zone, ms) === off) return ms;
   }

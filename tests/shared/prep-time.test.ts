@@ -137,6 +137,59 @@ describe('time zones (IANA database via Luxon and Intl)', () => {
     assert.equal(t.startBy, ref.toISO({ suppressMilliseconds: true }));
   });
 
+  it('writes every time with the offset Luxon gives for that instant, around both changes', () => {
+    // Reference: Luxon's offset for each instant; durations are elapsed time.
+    const days = [
+      '2026-04-04',
+      '2026-04-05',
+      '2026-04-06',
+      '2026-10-03',
+      '2026-10-04',
+      '2026-10-05',
+    ];
+    fc.assert(
+      fc.property(
+        fc.constantFrom(...days),
+        fc.integer({ min: 0, max: 23 }),
+        fc.integer({ min: 1, max: 1440 }),
+        fc.integer({ min: 0, max: 1440 }),
+        (date, hour, charge, buffer) => {
+          const startsAt = `${date}T${String(hour).padStart(2, '0')}:00`;
+          const start = localToInstant(startsAt, ADL);
+          if (start === null) return; // 02:00 on 2026-10-04 does not exist
+          const end = DateTime.fromMillis(start + 50 * 60_000, { zone: ADL });
+          const plan = computePrepPlan(
+            lesson({
+              lesson: { startsAt, endsAt: end.toFormat("yyyy-MM-dd'T'HH:mm"), groupSize: 4 },
+              parts: [
+                part('X-7', 'Controller', { category: 'controller', fullChargeMinutes: charge }),
+              ],
+              tubs: [tub('Tub 1', { 'X-7': 2 }), tub('Tub 2', {}, { status: 'needs-sorting' })],
+              activities: [
+                activity('Code', [{ partCode: 'X-7', qty: 1, per: 'group' }], { kind: 'code' }),
+              ],
+              settings: { chargeBufferMinutes: buffer },
+            }),
+          );
+          const times = [
+            plan.timeline.packAwayStartsAt,
+            ...plan.timeline.segments.flatMap((x) => [x.startsAt, x.endsAt]),
+            ...plan.tasks.flatMap((t) => [t.startBy, t.doneBy]),
+          ];
+          for (const iso of times) {
+            const ref = DateTime.fromMillis(Date.parse(iso), { zone: ADL });
+            assert.equal(iso, ref.toFormat("yyyy-MM-dd'T'HH:mm:ssZZ"));
+          }
+          assert.equal(plan.timeline.windowMinutes, 50);
+          const c = plan.tasks.find((t) => t.kind === 'charge')!;
+          assert.equal(Date.parse(c.doneBy), start - buffer * 60_000);
+          assert.equal(Date.parse(c.doneBy) - Date.parse(c.startBy), charge * 60_000);
+        },
+      ),
+      { numRuns: 400, seed: 20261004 },
+    );
+  });
+
   it('relies on no zone changing offset twice within two days (all zones, 2026)', () => {
     // Checked against the runtime's IANA database (Intl): sample every 3 hours through 2026.
     const start = Date.UTC(2026, 0, 1);

@@ -1,0 +1,143 @@
+import { ChangeDetectionStrategy, Component, OnInit, inject, signal } from '@angular/core';
+import { takeUntilDestroyed } from '@angular/core/rxjs-interop';
+import { FormControl, FormGroup, FormGroupDirective, ReactiveFormsModule } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MatCardModule } from '@angular/material/card';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatInputModule } from '@angular/material/input';
+import {
+  PASSWORD_MIN,
+  newPasswordSchema,
+  passwordChangeSchema,
+} from '../../../shared/schemas/auth';
+import { ROLE_LABELS, personNameSchema } from '../../../shared/schemas/common';
+import { Session } from '../auth/session';
+import { AppError } from '../errors/app-error';
+import { Notifier } from '../errors/notifier';
+import { FieldErrorPipe } from '../forms/field-error';
+import { formErrorMessage, showFieldError } from '../forms/server-errors';
+import { matchesSibling, zodValidator } from '../forms/validators';
+import { AccountApi } from './account-api';
+
+/** Shown under "Current password" when it is wrong. */
+export const WRONG_PASSWORD_MESSAGE = "That isn't your current password.";
+
+/** `/account`: the user's name and password. */
+@Component({
+  selector: 'app-account',
+  imports: [
+    ReactiveFormsModule,
+    MatCardModule,
+    MatFormFieldModule,
+    MatInputModule,
+    MatButtonModule,
+    FieldErrorPipe,
+  ],
+  templateUrl: './account.html',
+  styleUrl: './account.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class Account implements OnInit {
+  private readonly api = inject(AccountApi);
+  private readonly session = inject(Session);
+  private readonly notifier = inject(Notifier);
+
+  protected readonly user = this.session.user;
+  protected readonly roleLabels = ROLE_LABELS;
+  protected readonly minLength = PASSWORD_MIN;
+
+  protected readonly nameForm = new FormGroup({
+    name: new FormControl(this.session.user()?.name ?? '', {
+      nonNullable: true,
+      validators: [zodValidator(personNameSchema, 'Enter your name.')],
+    }),
+  });
+  protected readonly savingName = signal(false);
+  protected readonly nameError = signal<string | null>(null);
+
+  protected readonly passwordForm = new FormGroup({
+    currentPassword: new FormControl('', {
+      nonNullable: true,
+      validators: [zodValidator(passwordChangeSchema.shape.currentPassword)],
+    }),
+    newPassword: new FormControl('', {
+      nonNullable: true,
+      validators: [zodValidator(newPasswordSchema, 'Enter a new password.')],
+    }),
+    confirm: new FormControl('', {
+      nonNullable: true,
+      validators: [
+        zodValidator(newPasswordSchema, 'Enter the new password again.'),
+        matchesSibling('newPassword', "The two passwords don't match."),
+      ],
+    }),
+  });
+  protected readonly savingPassword = signal(false);
+  protected readonly passwordError = signal<string | null>(null);
+
+  constructor() {
+    this.passwordForm.controls.newPassword.valueChanges
+      .pipe(takeUntilDestroyed())
+      .subscribe(() => this.passwordForm.controls.confirm.updateValueAndValidity());
+  }
+
+  ngOnInit(): void {
+    this.api.get().subscribe((user) => {
+      this.session.update(user);
+      if (this.nameForm.pristine) this.nameForm.setValue({ name: user.name });
+    });
+  }
+
+  protected saveName(): void {
+    this.nameError.set(null);
+    if (this.nameForm.invalid) {
+      this.nameForm.markAllAsTouched();
+      return;
+    }
+    this.savingName.set(true);
+    this.api.rename(this.nameForm.controls.name.value).subscribe({
+      next: (user) => {
+        this.savingName.set(false);
+        this.session.update(user);
+        this.nameForm.reset({ name: user.name });
+        this.notifier.info('Your name is saved.');
+      },
+      error: (error: unknown) => {
+        this.savingName.set(false);
+        if (!(error instanceof AppError)) throw error;
+        this.nameError.set(formErrorMessage(this.nameForm, error));
+      },
+    });
+  }
+
+  protected changePassword(directive: FormGroupDirective): void {
+    this.passwordError.set(null);
+    if (this.passwordForm.invalid) {
+      this.passwordForm.markAllAsTouched();
+      return;
+    }
+    this.savingPassword.set(true);
+    const { currentPassword, newPassword } = this.passwordForm.getRawValue();
+    this.api.changePassword(currentPassword, newPassword).subscribe({
+      next: () => {
+        this.savingPassword.set(false);
+        // resetForm also clears the "submitted" state, so the empty fields show no errors.
+        directive.resetForm();
+        this.notifier.info('Your password is changed.');
+      },
+      error: (error: unknown) => {
+        this.savingPassword.set(false);
+        if (!(error instanceof AppError)) throw error;
+        if (error.code === 'wrong-password') {
+          showFieldError(this.passwordForm, 'currentPassword', WRONG_PASSWORD_MESSAGE);
+        } else if (error.code === 'password-common' && error.details.length === 0) {
+          showFieldError(this.passwordForm, 'newPassword', error.message);
+        } else {
+          this.passwordError.set(
+            formErrorMessage(this.passwordForm, error, undefined, { password: 'newPassword' }),
+          );
+        }
+      },
+    });
+  }
+}

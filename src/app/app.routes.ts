@@ -1,0 +1,104 @@
+import type { Routes } from '@angular/router';
+import { roleGuard, signedInGuard, signedOutGuard } from './auth/guards';
+import { AREA_ROLES } from './shell/navigation';
+
+/**
+ * Every route; feature areas load lazily and their guards mirror the server's role rules.
+ * The shell comes first: an empty-path parent with children also matches `/` when none of its
+ * children does, so the signed-out layout placed first would swallow the home page.
+ */
+export const routes: Routes = [
+  {
+    path: '',
+    canActivate: [signedInGuard],
+    loadComponent: () => import('./shell/shell').then((m) => m.Shell),
+    children: [
+      {
+        path: '',
+        pathMatch: 'full',
+        title: 'Home',
+        loadComponent: () => import('./home/home').then((m) => m.Home),
+      },
+      {
+        path: 'units',
+        canActivate: [roleGuard(AREA_ROLES.units)],
+        loadChildren: () => import('./units/units.routes').then((m) => m.UNITS_ROUTES),
+      },
+      {
+        path: 'lessons',
+        canActivate: [roleGuard([...AREA_ROLES.units, ...AREA_ROLES.relief])],
+        loadChildren: () => import('./lessons/lessons.routes').then((m) => m.LESSONS_ROUTES),
+      },
+      {
+        path: 'kits',
+        canActivate: [roleGuard(AREA_ROLES.kits)],
+        loadChildren: () => import('./kits/kits.routes').then((m) => m.KITS_ROUTES),
+      },
+      {
+        path: 'classes',
+        canActivate: [roleGuard(AREA_ROLES.classes)],
+        loadChildren: () => import('./classes/classes.routes').then((m) => m.CLASSES_ROUTES),
+      },
+      {
+        path: 'review',
+        canActivate: [roleGuard(AREA_ROLES.review)],
+        loadChildren: () => import('./review/review.routes').then((m) => m.REVIEW_ROUTES),
+      },
+      {
+        path: 'relief',
+        canActivate: [roleGuard(AREA_ROLES.relief)],
+        loadChildren: () => import('./relief/relief.routes').then((m) => m.RELIEF_ROUTES),
+      },
+      {
+        path: 'school',
+        canActivate: [roleGuard(AREA_ROLES.school)],
+        loadChildren: () => import('./school/school.routes').then((m) => m.SCHOOL_ROUTES),
+      },
+      {
+        path: 'members',
+        title: 'Members',
+        canActivate: [roleGuard(AREA_ROLES.members)],
+        loadComponent: () => import('./members/members').then((m) => m.Members),
+      },
+      {
+        path: 'dev/mail',
+        title: 'Mail outbox (development)',
+        canActivate: [roleGuard(AREA_ROLES.devMail)],
+        loadComponent: () => import('./dev-mail/dev-mail').then((m) => m.DevMail),
+      },
+      {
+        path: 'account',
+        title: 'Account',
+        loadComponent: () => import('./account/account').then((m) => m.Account),
+      },
+    ],
+  },
+  {
+    path: '',
+    loadComponent: () => import('./auth/auth-layout').then((m) => m.AuthLayout),
+    children: [
+      {
+        path: 'sign-in',
+        title: 'Sign in',
+        canActivate: [signedOutGuard],
+        loadComponent: () => import('./auth/sign-in').then((m) => m.SignIn),
+      },
+      {
+        path: 'reset',
+        title: 'Reset your password',
+        loadComponent: () => import('./auth/reset-request').then((m) => m.ResetRequest),
+      },
+      {
+        path: 'reset/:token',
+        title: 'Choose a new password',
+        loadComponent: () => import('./auth/reset-complete').then((m) => m.ResetComplete),
+      },
+      {
+        path: 'invitation/:token',
+        title: 'Join your school',
+        loadComponent: () => import('./auth/invitation').then((m) => m.Invitation),
+      },
+    ],
+  },
+  { path: '**', redirectTo: '' },
+];

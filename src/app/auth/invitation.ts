@@ -1,0 +1,124 @@
+import { DatePipe } from '@angular/common';
+import { ChangeDetectionStrategy, Component, OnInit, inject, input, signal } from '@angular/core';
+import { takeUntilDestroyed } from '@angular/core/rxjs-interop';
+import { FormControl, FormGroup, ReactiveFormsModule } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MatCardModule } from '@angular/material/card';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatInputModule } from '@angular/material/input';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { Router } from '@angular/router';
+import { PASSWORD_MIN, newPasswordSchema, type InvitationInfo } from '../../../shared/schemas/auth';
+import { ROLE_LABELS, personNameSchema } from '../../../shared/schemas/common';
+import { AppError } from '../errors/app-error';
+import { FieldErrorPipe } from '../forms/field-error';
+import { formErrorMessage, showFieldError } from '../forms/server-errors';
+import { matchesSibling, zodValidator } from '../forms/validators';
+import { AuthApi } from './auth-api';
+import { Session } from './session';
+
+/** Shown for an invitation that has run out or was already accepted. */
+export const INVITATION_INVALID_MESSAGE =
+  'This invitation has expired or has already been used. Ask your school admin to send a new one.';
+
+type Load =
+  | { state: 'loading' }
+  | { state: 'ready'; info: InvitationInfo }
+  | { state: 'invalid' }
+  | { state: 'failed'; message: string };
+
+/** `/invitation/:token`: a new member sets their name and password and is signed in. */
+@Component({
+  selector: 'app-invitation',
+  imports: [
+    DatePipe,
+    ReactiveFormsModule,
+    MatCardModule,
+    MatFormFieldModule,
+    MatInputModule,
+    MatButtonModule,
+    MatProgressBarModule,
+    FieldErrorPipe,
+  ],
+  templateUrl: './invitation.html',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class Invitation implements OnInit {
+  private readonly api = inject(AuthApi);
+  private readonly session = inject(Session);
+  private readonly router = inject(Router);
+
+  /** From the route. */
+  readonly token = input.required<string>();
+
+  protected readonly roleLabels = ROLE_LABELS;
+  protected readonly minLength = PASSWORD_MIN;
+  protected readonly invalidMessage = INVITATION_INVALID_MESSAGE;
+  protected readonly load = signal<Load>({ state: 'loading' });
+  protected readonly submitting = signal(false);
+  protected readonly formError = signal<string | null>(null);
+  protected readonly form = new FormGroup({
+    name: new FormControl('', {
+      nonNullable: true,
+      validators: [zodValidator(personNameSchema, 'Enter your name as colleagues know it.')],
+    }),
+    password: new FormControl('', {
+      nonNullable: true,
+      validators: [zodValidator(newPasswordSchema, 'Choose a password.')],
+    }),
+    confirm: new FormControl('', {
+      nonNullable: true,
+      validators: [
+        zodValidator(newPasswordSchema, 'Enter the password again.'),
+        matchesSibling('password', "The two passwords don't match."),
+      ],
+    }),
+  });
+
+  constructor() {
+    this.form.controls.password.valueChanges
+      .pipe(takeUntilDestroyed())
+      .subscribe(() => this.form.controls.confirm.updateValueAndValidity());
+  }
+
+  ngOnInit(): void {
+    this.api.invitation(this.token()).subscribe({
+      next: (info) => this.load.set({ state: 'ready', info }),
+      error: (error: unknown) => this.load.set(this.failure(error)),
+    });
+  }
+
+  protected submit(): void {
+    this.formError.set(null);
+    if (this.form.invalid) {
+      this.form.markAllAsTouched();
+      return;
+    }
+    this.submitting.set(true);
+    const { name, password } = this.form.getRawValue();
+    this.session.acceptInvitation(this.token(), { name, password }).subscribe({
+      next: () => void this.router.navigateByUrl('/'),
+      error: (error: unknown) => {
+        this.submitting.set(false);
+        if (!(error instanceof AppError)) throw error;
+        if (error.status === 404 || error.code === 'invitation-invalid') {
+          this.load.set({ state: 'invalid' });
+        } else if (error.code === 'password-common' && error.details.length === 0) {
+          showFieldError(this.form, 'password', error.message);
+        } else {
+          this.formError.set(formErrorMessage(this.form, error));
+        }
+      },
+    });
+  }
+
+  private failure(error: unknown): Load {
+    if (
+      error instanceof AppError &&
+      (error.status === 404 || error.code === 'invitation-invalid')
+    ) {
+      return { state: 'invalid' };
+    }
+    return { state: 'failed', message: error instanceof AppError ? error.message : String(error) };
+  }
+}

@@ -1,0 +1,92 @@
+import { Injectable, computed, inject, signal } from '@angular/core';
+import { catchError, firstValueFrom, of, switchMap, tap, type Observable, map } from 'rxjs';
+import type { SessionUser, SignIn } from '../../../shared/schemas/auth';
+import { AppError } from '../errors/app-error';
+import { Notifier } from '../errors/notifier';
+import { AuthApi } from './auth-api';
+
+/**
+ * Who is signed in, for the whole client. Loaded once at start-up (`start()`); the server stays
+ * the authority and answers 401 or 403 whatever this says.
+ */
+@Injectable({ providedIn: 'root' })
+export class Session {
+  private readonly api = inject(AuthApi);
+  private readonly notifier = inject(Notifier);
+  private readonly current = signal<SessionUser | null>(null);
+  private started: Promise<void> | null = null;
+
+  /** The signed-in user, or null when signed out. */
+  readonly user = this.current.asReadonly();
+  /** Whether someone is signed in. */
+  readonly signedIn = computed(() => this.current() !== null);
+
+  /**
+   * Fetches the CSRF cookie, then `/api/auth/me`, once; later calls return the same promise.
+   * Never rejects: a 401 means signed out, other failures are shown and also mean signed out.
+   */
+  start(): Promise<void> {
+    this.started ??= this.load();
+    return this.started;
+  }
+
+  private async load(): Promise<void> {
+    await firstValueFrom(this.refreshCsrf());
+    try {
+      this.current.set(await firstValueFrom(this.api.me()));
+    } catch (error) {
+      this.current.set(null);
+      if (!(error instanceof AppError && error.status === 401)) {
+        this.notifier.error(error instanceof AppError ? error.message : String(error));
+      }
+    }
+  }
+
+  /** Signs in and takes a fresh CSRF token for the new session. */
+  signIn(credentials: SignIn): Observable<SessionUser> {
+    return this.api.signIn(credentials).pipe(switchMap((user) => this.begin(user)));
+  }
+
+  /** Accepts an invitation, which signs the new member in. */
+  acceptInvitation(
+    token: string,
+    body: { name: string; password: string },
+  ): Observable<SessionUser> {
+    return this.api.acceptInvitation(token, body).pipe(switchMap((user) => this.begin(user)));
+  }
+
+  signOut(): Observable<void> {
+    return this.api.signOut().pipe(
+      tap(() => this.current.set(null)),
+      switchMap(() => this.refreshCsrf()),
+    );
+  }
+
+  /** Replaces the user after an edit of the account (e.g. a new name). */
+  update(user: SessionUser): void {
+    this.current.set(user);
+  }
+
+  /** Forgets the user after the server said the session is gone. */
+  clear(): void {
+    this.current.set(null);
+  }
+
+  private begin(user: SessionUser): Observable<SessionUser> {
+    this.current.set(user);
+    return this.refreshCsrf().pipe(map(() => user));
+  }
+
+  /**
+   * The server may bind the token to the session, which changes on sign-in and sign-out. A failure
+   * here is not fatal: the next change request then fails with a 403 that is shown.
+   */
+  private refreshCsrf(): Observable<void> {
+    return this.api.csrf().pipe(
+      catchError((error: unknown) => {
+        console.warn('[trayplan] could not fetch the CSRF cookie', error);
+        return of(undefined);
+      }),
+    );
+  }
+}

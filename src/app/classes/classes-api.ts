@@ -1,0 +1,50 @@
+import { HttpClient } from '@angular/common/http';
+import { Injectable, inject } from '@angular/core';
+import { map, type Observable } from 'rxjs';
+import {
+  classListSchema,
+  classResponseSchema,
+  type ClassCreate,
+  type ClassUpdate,
+  type SchoolClass,
+} from '../../../shared/schemas/classes';
+import { callerShowsErrors } from '../errors/error-context';
+import { parseWith } from '../errors/parse';
+
+/** The school's classes (`/api/classes`). */
+@Injectable({ providedIn: 'root' })
+export class ClassesApi {
+  private readonly http = inject(HttpClient);
+
+  list(): Observable<SchoolClass[]> {
+    return this.http.get('/api/classes').pipe(
+      parseWith(classListSchema),
+      map((b) => b.classes),
+    );
+  }
+
+  /** The form shows this request's errors (e.g. 409 `name-taken`) itself. */
+  create(body: ClassCreate): Observable<SchoolClass> {
+    return this.http.post('/api/classes', body, { context: callerShowsErrors() }).pipe(
+      parseWith(classResponseSchema),
+      map((b) => b.class),
+    );
+  }
+
+  /** The form shows this request's errors itself. */
+  update(id: string, body: ClassUpdate): Observable<SchoolClass> {
+    return this.http
+      .patch(`/api/classes/${encodeURIComponent(id)}`, body, { context: callerShowsErrors() })
+      .pipe(
+        parseWith(classResponseSchema),
+        map((b) => b.class),
+      );
+  }
+
+  /** The page shows a refusal (409 `in-use`) itself. */
+  remove(id: string): Observable<void> {
+    return this.http
+      .delete(`/api/classes/${encodeURIComponent(id)}`, { context: callerShowsErrors() })
+      .pipe(map(() => undefined));
+  }
+}

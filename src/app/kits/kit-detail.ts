@@ -1,0 +1,220 @@
+import {
+  ChangeDetectionStrategy,
+  Component,
+  computed,
+  effect,
+  inject,
+  input,
+  signal,
+  untracked,
+} from '@angular/core';
+import { FormControl, FormGroup, ReactiveFormsModule } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MatDialog } from '@angular/material/dialog';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatInputModule } from '@angular/material/input';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { MatTableModule } from '@angular/material/table';
+import { RouterLink } from '@angular/router';
+import {
+  TUB_STATUS_LABELS,
+  kitTypeSchema,
+  type KitType,
+  type TubSummary,
+} from '../../../shared/schemas/kits';
+import { Session } from '../auth/session';
+import { AppError } from '../errors/app-error';
+import { Notifier } from '../errors/notifier';
+import { ImportDialog, type ImportDialogData } from './import-dialog';
+import { KIT_EDITORS } from './kit-list';
+import { KitsApi, type Conflicts, type ReplacementLine } from './kits-api';
+import { PartsTable, type PartSave } from './parts-table';
+import { TubDialog, type TubDialogData } from './tub-dialog';
+
+/** Term 3 of 2026 in the demo calendar, used when the school has no term around today. */
+export const DEFAULT_RANGE = { from: '2026-07-20', to: '2026-09-26' };
+
+/** `/kits/:id`: a kit type's parts list, its tubs, the replacement list and booking conflicts. */
+@Component({
+  selector: 'app-kit-detail',
+  imports: [
+    RouterLink,
+    ReactiveFormsModule,
+    MatButtonModule,
+    MatIconModule,
+    MatFormFieldModule,
+    MatInputModule,
+    MatProgressBarModule,
+    MatTableModule,
+    PartsTable,
+  ],
+  templateUrl: './kit-detail.html',
+  styleUrl: './kit-detail.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class KitDetail {
+  /** The route's `:id` (component input binding). */
+  readonly id = input.required<string>();
+
+  private readonly api = inject(KitsApi);
+  private readonly dialog = inject(MatDialog);
+  private readonly notifier = inject(Notifier);
+  private readonly session = inject(Session);
+
+  protected readonly statusLabels = TUB_STATUS_LABELS;
+  protected readonly tubColumns = ['label', 'controllerLabel', 'status', 'missing', 'open'];
+  protected readonly replacementColumns = ['partCode', 'name', 'missing', 'tubs'];
+  protected readonly kit = signal<KitType | null>(null);
+  protected readonly loading = signal(true);
+  protected readonly saving = signal(false);
+  protected readonly tubs = signal<TubSummary[]>([]);
+  protected readonly replacements = signal<ReplacementLine[]>([]);
+  protected readonly conflicts = signal<Conflicts | null>(null);
+  /** An edit the server refused as stale, kept so it can be re-applied on the new version. */
+  protected readonly stale = signal<PartSave | null>(null);
+  protected readonly canEdit = computed(() =>
+    KIT_EDITORS.includes(this.session.user()?.role ?? ''),
+  );
+  protected readonly range = new FormGroup({
+    from: new FormControl(DEFAULT_RANGE.from, { nonNullable: true }),
+    to: new FormControl(DEFAULT_RANGE.to, { nonNullable: true }),
+  });
+
+  constructor() {
+    effect(() => {
+      const id = this.id();
+      untracked(() => {
+        this.load(id);
+        this.loadTermThenConflicts();
+      });
+    });
+  }
+
+  protected csvUrl(kit: KitType): string {
+    return this.api.partsCsvUrl(kit.id);
+  }
+
+  protected replacementsCsvUrl(kit: KitType): string {
+    return this.api.replacementsCsvUrl(kit.id);
+  }
+
+  protected tubsText(line: ReplacementLine): string {
+    return line.tubs.map((t) => `${t.label} (${t.count})`).join(', ');
+  }
+
+  protected missingText(tub: TubSummary): string {
+    if (tub.missing.length === 0) return 'Nothing missing';
+    return tub.missing.map((m) => `${m.count} × ${m.partName} (${m.partCode})`).join(', ');
+  }
+
+  /** Reloads everything from the server and drops a refused edit. */
+  reload(): void {
+    this.stale.set(null);
+    this.load(this.id());
+  }
+
+  protected savePart(request: PartSave): void {
+    const kit = this.kit();
+    if (!kit) return;
+    this.send(request, kit.version);
+  }
+
+  /** Sends the refused edit again on the version the server holds now. */
+  protected reapply(): void {
+    const request = this.stale();
+    const kit = this.kit();
+    if (!request || !kit) return;
+    this.stale.set(null);
+    this.send(request, kit.version);
+  }
+
+  protected importCsv(kit: KitType): void {
+    const data: ImportDialogData = { kitTypeId: kit.id, kitTypeName: kit.name };
+    this.dialog
+      .open(ImportDialog, { data, width: 'min(44rem, calc(100vw - 2rem))' })
+      .afterClosed()
+      .subscribe((imported?: number) => {
+        if (imported === undefined) return;
+        this.notifier.info(`Imported ${imported} ${imported === 1 ? 'part' : 'parts'}.`);
+        this.reload();
+      });
+  }
+
+  protected openTub(tub: TubSummary): void {
+    const parts = this.kit()?.parts ?? [];
+    const data: TubDialogData = { tubId: tub.id, parts, canAudit: this.canAudit() };
+    this.dialog
+      .open(TubDialog, { data, width: 'min(48rem, calc(100vw - 2rem))' })
+      .afterClosed()
+      .subscribe((changed?: boolean) => {
+        if (changed) this.reload();
+      });
+  }
+
+  protected loadConflicts(): void {
+    const { from, to } = this.range.getRawValue();
+    if (!/^\d{4}-\d{2}-\d{2}$/.test(from) || !/^\d{4}-\d{2}-\d{2}$/.test(to)) return;
+    this.api.conflicts(from, to).subscribe((c) => this.conflicts.set(c));
+  }
+
+  /** Relief teachers record audits too; leads only read. */
+  private canAudit(): boolean {
+    return ['admin', 'teacher', 'relief'].includes(this.session.user()?.role ?? '');
+  }
+
+  private send(request: PartSave, version: number): void {
+    const id = this.id();
+    this.saving.set(true);
+    this.api.updatePart(id, request.part.id, version, request.change).subscribe({
+      next: (kit) => {
+        this.saving.set(false);
+        this.kit.set(kit);
+        this.notifier.info(`${request.part.code} is saved.`);
+        this.loadTubs(id);
+      },
+      error: (error: unknown) => {
+        this.saving.set(false);
+        if (error instanceof AppError && error.status === 409 && error.code === 'stale') {
+          // Show the list as it is now; the person chooses to re-apply or leave it.
+          const current = kitTypeSchema.safeParse(error.current);
+          if (current.success) this.kit.set(current.data);
+          else this.load(id);
+          this.stale.set(request);
+        } else if (error instanceof AppError) {
+          this.notifier.error(error.message);
+        }
+      },
+    });
+  }
+
+  private load(id: string): void {
+    this.loading.set(true);
+    this.api.get(id).subscribe({
+      next: (kit) => {
+        this.kit.set(kit);
+        this.loading.set(false);
+      },
+      error: () => this.loading.set(false),
+    });
+    this.loadTubs(id);
+    this.api.replacements(id).subscribe((lines) => this.replacements.set(lines));
+  }
+
+  private loadTubs(id: string): void {
+    this.api.tubs(id).subscribe((tubs) => this.tubs.set(tubs));
+  }
+
+  /** Uses the school's term around today when there is one, else term 3 of 2026. */
+  private loadTermThenConflicts(): void {
+    this.api.terms().subscribe({
+      next: (terms) => {
+        const today = new Date().toISOString().slice(0, 10);
+        const term = terms.find((t) => t.startsOn <= today && today <= t.endsOn);
+        if (term) this.range.setValue({ from: term.startsOn, to: term.endsOn });
+        this.loadConflicts();
+      },
+      error: () => this.loadConflicts(),
+    });
+  }
+}

@@ -1,0 +1,181 @@
+import { HttpClient, HttpEventType, type HttpEvent } from '@angular/common/http';
+import { Injectable, inject } from '@angular/core';
+import { filter, map, type Observable } from 'rxjs';
+import { z } from 'zod';
+import {
+  kitTypeListSchema,
+  kitTypeResponseSchema,
+  partsImportResultSchema,
+  tubAuditListSchema,
+  tubAuditSchema,
+  tubListSchema,
+  tubResponseSchema,
+  type KitType,
+  type KitTypeCreate,
+  type KitTypeSummary,
+  type Part,
+  type Tub,
+  type TubAudit,
+  type TubAuditCreate,
+  type TubSummary,
+} from '../../../shared/schemas/kits';
+import { schoolSettingsResponseSchema } from '../../../shared/schemas/school';
+import { AppError, UNEXPECTED_RESPONSE_MESSAGE } from '../errors/app-error';
+import { callerShowsErrors } from '../errors/error-context';
+import { parseWith } from '../errors/parse';
+
+/** One line of a kit type's replacement list (missing pieces summed over its tubs). */
+export const replacementLineSchema = z.object({
+  partCode: z.string(),
+  name: z.string(),
+  missing: z.int(),
+  tubs: z.array(z.object({ label: z.string(), count: z.int() })),
+});
+export type ReplacementLine = z.infer<typeof replacementLineSchema>;
+const replacementsSchema = z.object({ lines: z.array(replacementLineSchema) });
+
+/** Booking conflicts and recharge gaps of the school over a date range. */
+export const conflictsSchema = z.object({
+  conflicts: z.array(
+    z.object({ lessons: z.array(z.unknown()), tubs: z.array(z.string()), message: z.string() }),
+  ),
+  rechargeGaps: z.array(z.looseObject({ message: z.string() })),
+});
+export type Conflicts = z.infer<typeof conflictsSchema>;
+
+/** The fields of a part the inline editor may change. */
+export type PartChange = Partial<Omit<Part, 'id' | 'hasPhoto'>>;
+
+/** Progress of a CSV upload, then its result. */
+export type ImportProgress =
+  | { kind: 'progress'; percent: number | null }
+  | { kind: 'done'; imported: number };
+
+const auditResponseSchema = z.object({ audit: tubAuditSchema });
+
+/** Kit types, parts lists, tubs, audits and the kit reports (`/api/kit-types`, `/api/tubs`). */
+@Injectable({ providedIn: 'root' })
+export class KitsApi {
+  private readonly http = inject(HttpClient);
+
+  list(): Observable<KitTypeSummary[]> {
+    return this.http.get('/api/kit-types').pipe(
+      parseWith(kitTypeListSchema),
+      map((b) => b.kitTypes),
+    );
+  }
+
+  /** The form shows this request's errors (e.g. 409 `name-taken`) itself. */
+  create(body: KitTypeCreate): Observable<KitType> {
+    return this.http.post('/api/kit-types', body, { context: callerShowsErrors() }).pipe(
+      parseWith(kitTypeResponseSchema),
+      map((b) => b.kitType),
+    );
+  }
+
+  get(id: string): Observable<KitType> {
+    return this.http.get(`/api/kit-types/${encodeURIComponent(id)}`).pipe(
+      parseWith(kitTypeResponseSchema),
+      map((b) => b.kitType),
+    );
+  }
+
+  /** The page shows a 409 (stale version) itself; other errors go to the snack-bar. */
+  updatePart(id: string, partId: string, version: number, change: PartChange): Observable<KitType> {
+    const url = `/api/kit-types/${encodeURIComponent(id)}/parts/${encodeURIComponent(partId)}`;
+    return this.http.patch(url, { version, ...change }, { context: callerShowsErrors() }).pipe(
+      parseWith(kitTypeResponseSchema),
+      map((b) => b.kitType),
+    );
+  }
+
+  /** Uploads a parts-list CSV as multipart field `file`, reporting upload progress. */
+  importParts(id: string, file: File): Observable<ImportProgress> {
+    const form = new FormData();
+    form.append('file', file, file.name);
+    return this.http
+      .post(`/api/kit-types/${encodeURIComponent(id)}/parts/import`, form, {
+        reportProgress: true,
+        observe: 'events',
+        context: callerShowsErrors(),
+      })
+      .pipe(
+        filter(
+          (e: HttpEvent<unknown>) =>
+            e.type === HttpEventType.UploadProgress || e.type === HttpEventType.Response,
+        ),
+        map((e): ImportProgress => {
+          if (e.type === HttpEventType.UploadProgress) {
+            return {
+              kind: 'progress',
+              percent: e.total ? Math.round((100 * e.loaded) / e.total) : null,
+            };
+          }
+          if (e.type !== HttpEventType.Response) throw new Error('unreachable');
+          const result = partsImportResultSchema.safeParse(e.body);
+          if (!result.success) {
+            throw new AppError(0, 'unexpected-response', UNEXPECTED_RESPONSE_MESSAGE);
+          }
+          return { kind: 'done', imported: result.data.imported };
+        }),
+      );
+  }
+
+  /** Where the browser downloads the parts list as CSV. */
+  partsCsvUrl(id: string): string {
+    return `/api/kit-types/${encodeURIComponent(id)}/parts.csv`;
+  }
+
+  replacements(id: string): Observable<ReplacementLine[]> {
+    return this.http.get(`/api/kit-types/${encodeURIComponent(id)}/replacements`).pipe(
+      parseWith(replacementsSchema),
+      map((b) => b.lines),
+    );
+  }
+
+  replacementsCsvUrl(id: string): string {
+    return `/api/kit-types/${encodeURIComponent(id)}/replacements.csv`;
+  }
+
+  tubs(kitTypeId: string): Observable<TubSummary[]> {
+    return this.http.get('/api/tubs', { params: { kitTypeId } }).pipe(
+      parseWith(tubListSchema),
+      map((b) => b.tubs),
+    );
+  }
+
+  tub(id: string): Observable<Tub> {
+    return this.http.get(`/api/tubs/${encodeURIComponent(id)}`).pipe(
+      parseWith(tubResponseSchema),
+      map((b) => b.tub),
+    );
+  }
+
+  audits(tubId: string): Observable<TubAudit[]> {
+    return this.http.get(`/api/tubs/${encodeURIComponent(tubId)}/audits`).pipe(
+      parseWith(tubAuditListSchema),
+      map((b) => b.audits),
+    );
+  }
+
+  /** The audit form shows this request's errors itself. */
+  createAudit(tubId: string, body: TubAuditCreate): Observable<unknown> {
+    return this.http
+      .post(`/api/tubs/${encodeURIComponent(tubId)}/audits`, body, {
+        context: callerShowsErrors(),
+      })
+      .pipe(map((b) => auditResponseSchema.safeParse(b).data ?? b));
+  }
+
+  conflicts(from: string, to: string): Observable<Conflicts> {
+    return this.http.get('/api/conflicts', { params: { from, to } }).pipe(parseWith(conflictsSchema));
+  }
+
+  /** The school's terms, for the default range of the conflicts. */
+  terms(): Observable<{ name: string; startsOn: string; endsOn: string }[]> {
+    return this.http.get('/api/school').pipe(
+      parseWith(schoolSettingsResponseSchema),
+      map((b) => b.school.terms),
+    );
+  }
+}

@@ -1,0 +1,15 @@
+import type { Routes } from '@angular/router';
+
+/** The Kits area: the kit types, then one kit type with its parts list, tubs and reports. */
+export const KITS_ROUTES: Routes = [
+  {
+    path: '',
+    title: 'Kits',
+    loadComponent: () => import('./kit-list').then((m) => m.KitList),
+  },
+  {
+    path: ':id',
+    title: 'Kit type',
+    loadComponent: () => import('./kit-detail').then((m) => m.KitDetail),
+  },
+];

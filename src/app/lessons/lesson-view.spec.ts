@@ -1,0 +1,187 @@
+import type { HarnessLoader } from '@angular/cdk/testing';
+import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
+import { HttpTestingController } from '@angular/common/http/testing';
+import { TestBed, type ComponentFixture } from '@angular/core/testing';
+import { MatButtonHarness } from '@angular/material/button/testing';
+import { MatCheckboxHarness } from '@angular/material/checkbox/testing';
+import { MatProgressBarHarness } from '@angular/material/progress-bar/testing';
+import { MatSnackBarHarness } from '@angular/material/snack-bar/testing';
+import { MatTableHarness } from '@angular/material/table/testing';
+import type { PrepPlan } from '../../../shared/prep/index';
+import { errorBody, testProviders } from '../testing/test-providers';
+import { LessonView } from './lesson-view';
+import { workedExampleLesson, workedExampleParts, workedExamplePlan } from './worked-example';
+
+/** The invented demo kit type around the parts list. */
+const KIT_SUMMARY = {
+  id: 'kit-rover',
+  name: 'Rover Builder Tub',
+  description: '',
+  version: 1,
+  partCount: 3,
+  pieceCount: 5,
+  tubCount: 3,
+  lessonCount: 1,
+};
+
+describe('LessonView', () => {
+  let fixture: ComponentFixture<LessonView>;
+  let loader: HarnessLoader;
+  let root: HarnessLoader;
+  let backend: HttpTestingController;
+  let plan: PrepPlan;
+
+  beforeEach(async () => {
+    TestBed.configureTestingModule({ providers: testProviders() });
+    backend = TestBed.inject(HttpTestingController);
+    fixture = TestBed.createComponent(LessonView);
+    fixture.componentRef.setInput('id', 'lesson-2');
+    loader = TestbedHarnessEnvironment.loader(fixture);
+    root = TestbedHarnessEnvironment.documentRootLoader(fixture);
+    plan = workedExamplePlan();
+    fixture.detectChanges();
+    backend.expectOne('/api/lessons/lesson-2').flush(workedExampleLesson());
+    backend.expectOne('/api/lessons/lesson-2/prep').flush(plan);
+    await fixture.whenStable();
+    backend
+      .expectOne('/api/kit-types/kit-rover')
+      .flush({ kitType: { ...KIT_SUMMARY, parts: workedExampleParts() } });
+    await fixture.whenStable();
+  });
+
+  afterEach(() => backend.verify());
+
+  function text(): string {
+    return (fixture.nativeElement as HTMLElement).textContent!.replace(/\s+/g, ' ');
+  }
+
+  async function pullListOf(group: number) {
+    return loader.getHarness(
+      MatTableHarness.with({ ancestor: `#group-${group}` }),
+    );
+  }
+
+  it('shows the lesson header in the school’s wall-clock time', () => {
+    expect(text()).toContain('Drive train');
+    expect(text()).toContain('Rescue Rovers');
+    expect(text()).toContain('4K (10 students)');
+    // 2026-07-28 is a Tuesday (the demo's lessons are on Tuesdays, BRIEF.md / CLIENT-GUIDE.md).
+    expect(text()).toContain('Tue 28 Jul 2026, 11:10 am–12:00 pm');
+  });
+
+  it('renders each group with its size and home tub (PREP-RULES.md worked example)', () => {
+    const headings = Array.from(
+      (fixture.nativeElement as HTMLElement).querySelectorAll('.group h3'),
+    ).map((h) => h.textContent!.replace(/\s+/g, ' ').trim());
+    // Worked example: 4 groups, sizes 3,3,2,2, homes Tub 1, Tub 2, Tub 3, Tub 1.
+    expect(headings).toEqual([
+      'Group 1 · 3 students · home tub Tub 1',
+      'Group 2 · 3 students · home tub Tub 2',
+      'Group 3 · 2 students · home tub Tub 3',
+      'Group 4 · 2 students · home tub Tub 1',
+    ]);
+  });
+
+  it('lists a group’s pull list rows with part names, colours, compartments and sources', async () => {
+    const rows = await (await pullListOf(1)).getCellTextByColumnName();
+    expect(rows['part'].text).toEqual(['Controller RB-001', 'Motor RB-010', 'Pin RB-020']);
+    expect(rows['colour'].text).toEqual(['Grey', 'Black', 'Blue']);
+    expect(rows['compartment'].text).toEqual(['A', 'B', 'C']);
+    // Group 1: 3 students × 4 pins + 2 per group → max(12, 2) = 12 pins (R2, worked example).
+    expect(rows['quantity'].text).toEqual(['1', '2', '12']);
+    expect(rows['from'].text).toEqual(['Tub 1 × 1', 'Tub 1 × 2', 'Tub 1 × 12']);
+  });
+
+  it('flags a borrow with the tub it returns to and a short line', async () => {
+    // Worked example: group 3 borrows 2 Pin from Tub 2; group 2 is 1 Motor short.
+    const group3 = await (await pullListOf(3)).getCellTextByColumnName();
+    expect(group3['from'].text[2]).toBe('Tub 3 × 6, Tub 2 × 2 Borrowed: return 2 to Tub 2');
+    const group2 = await (await pullListOf(2)).getCellTextByColumnName();
+    expect(group2['quantity'].text[1]).toBe('1 of 2');
+  });
+
+  it('lists the shortfalls and the prep tasks in time order with wall-clock times', () => {
+    const shortfalls = (fixture.nativeElement as HTMLElement).querySelectorAll('.shortfalls li');
+    // Worked example: group 2 Motor 1; group 4 Controller 1; group 4 Motor 2.
+    expect(shortfalls.length).toBe(3);
+    const tasks = Array.from(
+      (fixture.nativeElement as HTMLElement).querySelectorAll('.tasks li'),
+    ).map((li) => li.textContent!.replace(/\s+/g, ' ').trim());
+    // Worked example: charge start by 07:55 (180 min), pull 10 min by 11:00, devices 4 min by 11:06.
+    expect(tasks[0]).toContain('Charge 3 × Controller');
+    expect(tasks[0]).toContain('180 min · start by 7:55 am · done by 10:55 am');
+    expect(tasks[1]).toContain('10 min · start by 11:00 am · done by 11:10 am');
+    expect(tasks[2]).toContain('4 min · start by 11:06 am · done by 11:10 am');
+  });
+
+  it('ticks prep tasks off as a checklist', async () => {
+    const [first] = await loader.getAllHarnesses(MatCheckboxHarness);
+    expect(await first.isChecked()).toBeFalse();
+    await first.check();
+    expect(await first.isChecked()).toBeTrue();
+  });
+
+  it('applies the suggested group count as a group size and recomputes the plan', async () => {
+    // Worked example: 2 groups (5, 5) has no shortfall; 10 students → the smallest g with
+    // ceil(10 / g) = 2 is 5.
+    const button = await loader.getHarness(MatButtonHarness.with({ text: 'Use 2 groups' }));
+    await button.click();
+    const patch = backend.expectOne('/api/lessons/lesson-2');
+    expect(patch.request.method).toBe('PATCH');
+    expect(patch.request.body).toEqual({ version: 3, groupSize: 5 });
+    patch.flush(workedExampleLesson({ version: 4, groupSize: 5 }));
+    await fixture.whenStable();
+    const recomputed = workedExamplePlan({
+      lesson: { startsAt: '2026-07-28T11:10', endsAt: '2026-07-28T12:00', groupSize: 5 },
+    });
+    backend.expectOne('/api/lessons/lesson-2/prep').flush(recomputed);
+    await fixture.whenStable();
+    expect(recomputed.shortfalls).toEqual([]);
+    expect(text()).toContain('Every group and the class tray get all their parts.');
+    expect((fixture.nativeElement as HTMLElement).querySelectorAll('.group').length).toBe(2);
+  });
+
+  it('on a stale version says the lesson changed and offers Reload and Re-apply', async () => {
+    await (await loader.getHarness(MatButtonHarness.with({ text: 'Use 2 groups' }))).click();
+    backend
+      .expectOne('/api/lessons/lesson-2')
+      .flush(
+        { error: { code: 'stale', message: 'Changed.', current: workedExampleLesson({ version: 5, groupSize: 4 }) } },
+        { status: 409, statusText: 'Conflict' },
+      );
+    await fixture.whenStable();
+    expect(text()).toContain('Someone else changed this lesson');
+    expect(text()).toContain('its group size is now 4');
+    await (await loader.getHarness(MatButtonHarness.with({ text: 'Re-apply my change' }))).click();
+    const again = backend.expectOne('/api/lessons/lesson-2');
+    expect(again.request.body).toEqual({ version: 5, groupSize: 5 });
+    again.flush(workedExampleLesson({ version: 6, groupSize: 5 }));
+    await fixture.whenStable();
+    backend.expectOne('/api/lessons/lesson-2/prep').flush(plan);
+    await fixture.whenStable();
+    expect(text()).not.toContain('Someone else changed this lesson');
+  });
+
+  it('shows a print error from the interceptor and stops the progress bar', async () => {
+    await (await loader.getHarness(MatButtonHarness.with({ text: /Lesson pack/ }))).click();
+    expect(await loader.getAllHarnesses(MatProgressBarHarness)).toHaveSize(1);
+    backend
+      .expectOne('/api/lessons/lesson-2/pack.pdf')
+      .flush(new Blob([JSON.stringify(errorBody('not-found', 'Not there.'))]), {
+        status: 404,
+        statusText: 'Not Found',
+      });
+    await fixture.whenStable();
+    expect(await loader.getAllHarnesses(MatProgressBarHarness)).toHaveSize(0);
+    // A blob request's error body is not read as JSON, so the status's own message is shown.
+    const snack = await root.getHarness(MatSnackBarHarness);
+    expect(await snack.getMessage()).toBe("That page or record doesn't exist (any more).");
+  });
+
+  it('shows the safety cautions, deferring to the school', () => {
+    expect(text()).toContain('choking hazard');
+    expect(text()).toContain('swollen or hot battery');
+    expect(text()).toContain('walkways');
+    expect(text()).toContain("Your school's own policies and local regulations come first");
+  });
+});

@@ -1,0 +1,244 @@
+import {
+  ChangeDetectionStrategy,
+  Component,
+  Injector,
+  afterNextRender,
+  computed,
+  effect,
+  inject,
+  input,
+  signal,
+} from '@angular/core';
+import { MatButtonModule } from '@angular/material/button';
+import { MatCheckboxModule } from '@angular/material/checkbox';
+import { MatIconModule } from '@angular/material/icon';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { RouterLink } from '@angular/router';
+import { forkJoin, of } from 'rxjs';
+import { catchError } from 'rxjs/operators';
+import type { PrepPlan, PrepSuggestion, PrepTask } from '../../../shared/prep/index';
+import type { Part } from '../../../shared/schemas/kits';
+import { lessonSchema, type Lesson } from '../../../shared/schemas/lessons';
+import { AppError } from '../errors/app-error';
+import { Notifier } from '../errors/notifier';
+import { CAUTIONS_DEFER, SAFETY_CAUTIONS } from './cautions';
+import { clockOn, clockTime, dayLabel } from './clock';
+import { groupSizeFor } from './group-size';
+import { LessonsApi, type Printable } from './lessons-api';
+import { GroupBorrowsPipe } from './group-borrows';
+import { PullList } from './pull-list';
+import { Timeline } from './timeline';
+
+type GroupsSuggestion = Extract<PrepSuggestion, { kind: 'groups' }>;
+
+/** A stale edit: what the person asked for, kept to re-apply on the lesson as it is now. */
+interface Conflict {
+  groupSize: number;
+  current: Lesson | null;
+}
+
+/** `/lessons/:id[?group=N]`: a lesson with its prep plan, recomputed after every change here. */
+@Component({
+  selector: 'app-lesson-view',
+  imports: [
+    RouterLink,
+    MatButtonModule,
+    MatCheckboxModule,
+    MatIconModule,
+    MatProgressBarModule,
+    GroupBorrowsPipe,
+    PullList,
+    Timeline,
+  ],
+  templateUrl: './lesson-view.html',
+  styleUrl: './lesson-view.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class LessonView {
+  private readonly api = inject(LessonsApi);
+  private readonly notifier = inject(Notifier);
+  private readonly injector = inject(Injector);
+
+  /** Route parameter `:id`. */
+  readonly id = input.required<string>();
+  /** Query `?group=N`: the group whose pull list to scroll to. */
+  readonly group = input<string | undefined>(undefined);
+
+  protected readonly cautions = SAFETY_CAUTIONS;
+  protected readonly cautionsDefer = CAUTIONS_DEFER;
+  protected readonly lesson = signal<Lesson | null>(null);
+  protected readonly plan = signal<PrepPlan | null>(null);
+  protected readonly parts = signal<ReadonlyMap<string, Part>>(new Map());
+  protected readonly loading = signal(true);
+  protected readonly loadError = signal<string | null>(null);
+  protected readonly saving = signal(false);
+  protected readonly conflict = signal<Conflict | null>(null);
+  protected readonly download = signal<{ file: Printable; fraction: number | null } | null>(null);
+  /** Prep tasks ticked off on this screen (kept while the page is open). */
+  protected readonly done = signal<ReadonlySet<string>>(new Set());
+  private scrolled = false;
+
+  protected readonly groupSuggestions = computed(
+    () =>
+      (this.plan()?.suggestions.filter((s) => s.kind === 'groups') ?? []) as GroupsSuggestion[],
+  );
+  protected readonly partSuggestions = computed(
+    () => this.plan()?.suggestions.filter((s) => s.kind === 'part') ?? [],
+  );
+
+  constructor() {
+    effect(() => this.load(this.id()));
+  }
+
+  protected partName(code: string): string {
+    return this.parts().get(code)?.name ?? code;
+  }
+
+  protected clock(value: string): string {
+    return clockTime(value);
+  }
+
+  protected day(value: string): string {
+    return dayLabel(value);
+  }
+
+  /** A task time, with its day when it falls before the lesson's day. */
+  protected taskTime(value: string): string {
+    const lesson = this.lesson();
+    return lesson ? clockOn(value, lesson.startsAt) : clockTime(value);
+  }
+
+  protected taskKey(task: PrepTask): string {
+    return `${task.kind}|${task.label}|${task.startBy}`;
+  }
+
+  protected toggleTask(task: PrepTask, checked: boolean): void {
+    const key = this.taskKey(task);
+    this.done.update((keys) => {
+      const next = new Set(keys);
+      if (checked) next.add(key);
+      else next.delete(key);
+      return next;
+    });
+  }
+
+  /** The group size a suggestion needs, or null when no size gives exactly that many groups. */
+  protected sizeFor(suggestion: GroupsSuggestion): number | null {
+    const lesson = this.lesson();
+    return lesson ? groupSizeFor(lesson.class.studentCount, suggestion.groups) : null;
+  }
+
+  protected applyGroups(suggestion: GroupsSuggestion): void {
+    const lesson = this.lesson();
+    const groupSize = this.sizeFor(suggestion);
+    if (!lesson || groupSize === null) return;
+    this.saveGroupSize(lesson.version, groupSize);
+  }
+
+  /** After a 409: send the same change again on the version the server has now. */
+  protected reapply(): void {
+    const conflict = this.conflict();
+    if (!conflict?.current) return;
+    this.lesson.set(conflict.current);
+    this.saveGroupSize(conflict.current.version, conflict.groupSize);
+  }
+
+  protected reload(): void {
+    this.conflict.set(null);
+    this.load(this.id());
+  }
+
+  protected print(file: Printable): void {
+    if (this.download()) return;
+    this.download.set({ file, fraction: null });
+    this.api.download(this.id(), file).subscribe({
+      next: (event) => {
+        if (event.kind === 'progress') this.download.set({ file, fraction: event.fraction });
+        else {
+          this.download.set(null);
+          saveBlob(event.blob, fileName(this.lesson(), file));
+        }
+      },
+      // The interceptor has shown the error (e.g. a 404 while the printables are not served).
+      error: () => this.download.set(null),
+    });
+  }
+
+  private saveGroupSize(version: number, groupSize: number): void {
+    const id = this.id();
+    this.saving.set(true);
+    this.conflict.set(null);
+    this.api.update(id, { version, groupSize }).subscribe({
+      next: (lesson) => {
+        this.saving.set(false);
+        this.lesson.set(lesson);
+        this.notifier.info(`Group size is now ${groupSize}. The prep plan is recomputed.`);
+        this.refreshPrep(id);
+      },
+      error: (error: unknown) => {
+        this.saving.set(false);
+        if (error instanceof AppError && error.status === 409) {
+          const current = lessonSchema.safeParse(error.current);
+          this.conflict.set({ groupSize, current: current.success ? current.data : null });
+        } else if (error instanceof AppError) {
+          this.notifier.error(error.message);
+        }
+      },
+    });
+  }
+
+  private load(id: string): void {
+    this.loading.set(true);
+    this.loadError.set(null);
+    forkJoin({ lesson: this.api.lesson(id), plan: this.api.prep(id) }).subscribe({
+      next: ({ lesson, plan }) => {
+        this.lesson.set(lesson);
+        this.plan.set(plan);
+        this.loading.set(false);
+        this.loadParts(lesson.kitType.id);
+        this.scrollToGroup();
+      },
+      error: (error: unknown) => {
+        this.loading.set(false);
+        this.loadError.set(error instanceof AppError ? error.message : 'The lesson did not load.');
+      },
+    });
+  }
+
+  private refreshPrep(id: string): void {
+    this.api.prep(id).subscribe((plan) => this.plan.set(plan));
+  }
+
+  /** Part names are a nicety: without them the codes stand in (the error is already shown). */
+  private loadParts(kitTypeId: string): void {
+    this.api
+      .parts(kitTypeId)
+      .pipe(catchError(() => of([] as Part[])))
+      .subscribe((parts) => this.parts.set(new Map(parts.map((p) => [p.code, p]))));
+  }
+
+  private scrollToGroup(): void {
+    const group = this.group();
+    if (!group || this.scrolled) return;
+    this.scrolled = true;
+    afterNextRender(
+      () => document.getElementById(`group-${group}`)?.scrollIntoView({ block: 'start' }),
+      { injector: this.injector },
+    );
+  }
+}
+
+function fileName(lesson: Lesson | null, file: Printable): string {
+  const base = (lesson?.title ?? 'lesson').replace(/[^\w-]+/g, '-').replace(/^-|-$/g, '');
+  return `${base || 'lesson'}-${file}`;
+}
+
+/** Hands a downloaded file to the browser under its name. */
+function saveBlob(blob: Blob, name: string): void {
+  const url = URL.createObjectURL(blob);
+  const link = document.createElement('a');
+  link.href = url;
+  link.download = name;
+  link.click();
+  setTimeout(() => URL.revokeObjectURL(url));
+}

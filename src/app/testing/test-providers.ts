@@ -1,0 +1,50 @@
+import { provideHttpClient, withInterceptors, withXsrfConfiguration } from '@angular/common/http';
+import { provideHttpClientTesting } from '@angular/common/http/testing';
+import { Component, type EnvironmentProviders, type Provider } from '@angular/core';
+import { MATERIAL_ANIMATIONS } from '@angular/material/core';
+import { provideRouter, withComponentInputBinding, type Routes } from '@angular/router';
+import type { SessionUser } from '../../../shared/schemas/auth';
+import type { Role } from '../../../shared/schemas/common';
+import { errorInterceptor } from '../errors/error-interceptor';
+
+/** A page that renders nothing, for routes a spec only navigates to. */
+@Component({ selector: 'app-blank', template: '' })
+export class Blank {}
+
+/**
+ * The app's HTTP set-up (the real error interceptor) against HttpTestingController, a router
+ * with `routes`, and Material animations off so specs do not wait for them.
+ */
+export function testProviders(routes: Routes = []): (Provider | EnvironmentProviders)[] {
+  return [
+    provideRouter(routes, withComponentInputBinding()),
+    provideHttpClient(
+      withInterceptors([errorInterceptor]),
+      withXsrfConfiguration({ cookieName: 'XSRF-TOKEN', headerName: 'X-XSRF-TOKEN' }),
+    ),
+    provideHttpClientTesting(),
+    { provide: MATERIAL_ANIMATIONS, useValue: { animationsDisabled: true } },
+  ];
+}
+
+/** An invented user of the invented demo school. */
+export function demoUser(role: Role, overrides: Partial<SessionUser> = {}): SessionUser {
+  return {
+    id: `user-${role}`,
+    email: `${role}@kestrel-ridge.example`,
+    name: 'Robin Ashdown',
+    role,
+    schoolId: 'school-kestrel-ridge',
+    schoolName: 'Kestrel Ridge Primary School',
+    ...overrides,
+  };
+}
+
+/** The API's error body. */
+export function errorBody(
+  code: string,
+  message: string,
+  details?: { path: string; message: string }[],
+) {
+  return { error: { code, message, ...(details ? { details } : {}) } };
+}

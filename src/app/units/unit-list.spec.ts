@@ -1,0 +1,117 @@
+import type { HarnessLoader } from '@angular/cdk/testing';
+import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
+import { HttpTestingController } from '@angular/common/http/testing';
+import { TestBed, type ComponentFixture } from '@angular/core/testing';
+import { MatInputHarness } from '@angular/material/input/testing';
+import { MatSelectHarness } from '@angular/material/select/testing';
+import { MatTableHarness } from '@angular/material/table/testing';
+import { MatTabGroupHarness } from '@angular/material/tabs/testing';
+import type { UnitSummary } from '../../../shared/schemas/units';
+import { testProviders } from '../testing/test-providers';
+import { UnitList } from './unit-list';
+
+/** Invented units of the invented demo school. */
+function summary(overrides: Partial<UnitSummary>): UnitSummary {
+  return {
+    id: 'u-1',
+    title: 'Rescue Rovers',
+    yearLevel: 4,
+    learningArea: 'Digital Technologies',
+    term: 3,
+    status: 'draft',
+    visibility: 'school',
+    owner: { id: 'user-teacher', name: 'Jordan Pell', email: 'teacher@kestrel-ridge.example' },
+    lessonCount: 8,
+    version: 1,
+    updatedAt: '2026-07-20T09:00:00+09:30',
+    canEdit: true,
+    ...overrides,
+  };
+}
+
+const MINE = [
+  summary({}),
+  summary({ id: 'u-2', title: 'Smart Gates', yearLevel: 0, term: null, status: 'endorsed', lessonCount: 4 }),
+];
+
+describe('UnitList', () => {
+  let fixture: ComponentFixture<UnitList>;
+  let loader: HarnessLoader;
+  let backend: HttpTestingController;
+
+  beforeEach(async () => {
+    TestBed.configureTestingModule({ providers: testProviders() });
+    backend = TestBed.inject(HttpTestingController);
+    fixture = TestBed.createComponent(UnitList);
+    loader = TestbedHarnessEnvironment.loader(fixture);
+    fixture.detectChanges();
+    await fixture.whenStable();
+    backend.expectOne('/api/units?scope=mine').flush({ units: MINE });
+    await fixture.whenStable();
+  });
+
+  afterEach(() => backend.verify());
+
+  it('shows my units in a table', async () => {
+    const rows = await (await loader.getHarness(MatTableHarness)).getCellTextByColumnName();
+    expect(rows['title'].text).toEqual(['Rescue Rovers', 'Smart Gates']);
+    expect(rows['area'].text).toEqual(['Digital Technologies', 'Digital Technologies']);
+    expect(rows['yearLevel'].text).toEqual(['Year 4', 'Foundation']);
+    expect(rows['term'].text).toEqual(['Term 3', '—']);
+    expect(rows['status'].text).toEqual(['Draft', 'Endorsed']);
+    expect(rows['lessons'].text).toEqual(['8', '4']);
+    const link = (fixture.nativeElement as HTMLElement).querySelector('td a')!;
+    expect(link.getAttribute('href')).toBe('/units/u-1');
+  });
+
+  it('loads the school library from its tab', async () => {
+    const tabs = await loader.getHarness(MatTabGroupHarness);
+    await tabs.selectTab({ label: 'School library' });
+    await fixture.whenStable();
+    backend
+      .expectOne('/api/units?scope=library')
+      .flush({ units: [summary({ id: 'u-9', title: 'Bridges That Hold', canEdit: false })] });
+    await fixture.whenStable();
+    const rows = await (await loader.getHarness(MatTableHarness)).getCellTextByColumnName();
+    expect(rows['title'].text).toEqual(['Bridges That Hold']);
+  });
+
+  it('sends the year level, term, status and search filters', async () => {
+    const [year, term, status] = await loader.getAllHarnesses(MatSelectHarness);
+    await year.open();
+    await year.clickOptions({ text: 'Year 4' });
+    await fixture.whenStable();
+    backend.expectOne('/api/units?scope=mine&yearLevel=4').flush({ units: MINE });
+    await term.open();
+    await term.clickOptions({ text: 'Term 3' });
+    await fixture.whenStable();
+    backend.expectOne('/api/units?scope=mine&yearLevel=4&term=3').flush({ units: MINE });
+    await status.open();
+    await status.clickOptions({ text: 'Endorsed' });
+    await fixture.whenStable();
+    backend
+      .expectOne('/api/units?scope=mine&yearLevel=4&term=3&status=endorsed')
+      .flush({ units: [MINE[1]] });
+    const search = await loader.getHarness(MatInputHarness.with({ selector: '[type=search]' }));
+    await search.setValue('gates');
+    await fixture.whenStable();
+    // setValue types letter by letter; switchMap cancels all but the last request.
+    backend
+      .expectOne('/api/units?scope=mine&yearLevel=4&term=3&status=endorsed&q=gates')
+      .flush({ units: [MINE[1]] });
+    await fixture.whenStable();
+    const rows = await (await loader.getHarness(MatTableHarness)).getCellTextByColumnName();
+    expect(rows['title'].text).toEqual(['Smart Gates']);
+  });
+
+  it('says so when nothing matches', async () => {
+    const search = await loader.getHarness(MatInputHarness.with({ selector: '[type=search]' }));
+    await search.setValue('x');
+    await fixture.whenStable();
+    backend.expectOne('/api/units?scope=mine&q=x').flush({ units: [] });
+    await fixture.whenStable();
+    expect((fixture.nativeElement as HTMLElement).textContent).toContain(
+      'No unit matches these filters.',
+    );
+  });
+});

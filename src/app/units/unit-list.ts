@@ -1,0 +1,98 @@
+import { DatePipe } from '@angular/common';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  DestroyRef,
+  computed,
+  inject,
+  signal,
+} from '@angular/core';
+import { takeUntilDestroyed, toObservable } from '@angular/core/rxjs-interop';
+import { MatButtonModule } from '@angular/material/button';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatInputModule } from '@angular/material/input';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { MatSelectModule } from '@angular/material/select';
+import { MatTableModule } from '@angular/material/table';
+import { MatTabsModule } from '@angular/material/tabs';
+import { RouterLink } from '@angular/router';
+import { catchError, of, switchMap, tap } from 'rxjs';
+import {
+  UNIT_STATUSES,
+  UNIT_STATUS_LABELS,
+  type UnitStatus,
+  type UnitSummary,
+} from '../../../shared/schemas/units';
+import { TERMS, YEAR_LEVELS, yearLabel } from './labels';
+import { UnitsApi, type UnitFilters } from './units-api';
+
+/** `/units`: "My units" and the school library, filtered by year level, term, status and text. */
+@Component({
+  selector: 'app-unit-list',
+  imports: [
+    DatePipe,
+    RouterLink,
+    MatButtonModule,
+    MatFormFieldModule,
+    MatIconModule,
+    MatInputModule,
+    MatProgressBarModule,
+    MatSelectModule,
+    MatTableModule,
+    MatTabsModule,
+  ],
+  templateUrl: './unit-list.html',
+  styleUrl: './unit-list.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class UnitList {
+  private readonly api = inject(UnitsApi);
+
+  protected readonly scopes = ['mine', 'library'] as const;
+  protected readonly yearLevels = YEAR_LEVELS;
+  protected readonly terms = TERMS;
+  protected readonly statuses = UNIT_STATUSES;
+  protected readonly statusLabels = UNIT_STATUS_LABELS;
+  protected readonly columns = ['title', 'area', 'yearLevel', 'term', 'status', 'owner', 'lessons', 'updated'];
+
+  protected readonly scope = signal<UnitFilters['scope']>('mine');
+  protected readonly yearLevel = signal<number | null>(null);
+  protected readonly term = signal<number | null>(null);
+  protected readonly status = signal<UnitStatus | null>(null);
+  protected readonly q = signal('');
+  protected readonly loading = signal(true);
+  protected readonly units = signal<readonly UnitSummary[]>([]);
+
+  private readonly filters = computed<UnitFilters>(() => ({
+    scope: this.scope(),
+    yearLevel: this.yearLevel(),
+    term: this.term(),
+    status: this.status(),
+    q: this.q(),
+  }));
+
+  constructor() {
+    // switchMap: typing in the search box drops the answers of the earlier letters.
+    toObservable(this.filters)
+      .pipe(
+        tap(() => this.loading.set(true)),
+        switchMap((filters) =>
+          this.api.list(filters).pipe(catchError(() => of(null as UnitSummary[] | null))),
+        ),
+        takeUntilDestroyed(inject(DestroyRef)),
+      )
+      .subscribe((units) => {
+        this.loading.set(false);
+        if (units) this.units.set(units);
+      });
+  }
+
+  protected selectTab(index: number): void {
+    this.scope.set(this.scopes[index] ?? 'mine');
+  }
+
+  protected year(level: number): string {
+    return yearLabel(level);
+  }
+}
