@@ -78,17 +78,22 @@ function nodeCounts(name: string, code: number, out: string): SuiteResult {
   return { name, passed, failed: failed || (ok ? 0 : 1), ok, note: passed === 0 ? 'ran no test' : undefined };
 }
 
-/** Counts from Karma's progress reporter (`Executed N of M (K FAILED)`). */
+/** Counts from the summary line karma.conf.js's own reporter prints (`Karma summary: …`). */
 function karmaCounts(code: number, out: string): SuiteResult {
   // eslint-disable-next-line no-control-regex
   const plain = out.replace(/\u001b\[[0-9;]*m/g, '');
-  const all = [...plain.matchAll(/Executed (\d+) of (\d+)(?: \((\d+) FAILED\))?/g)];
-  const last = all.at(-1);
-  const executed = Number(last?.[1] ?? 0);
-  const failed = Number(last?.[3] ?? 0);
-  const passed = executed - failed;
-  const ok = code === 0 && failed === 0 && passed > 0;
-  return { name: 'client (Karma)', passed, failed: failed || (ok ? 0 : 1), ok, note: executed === 0 ? 'ran no test' : undefined };
+  const m = /^Karma summary: (\d+) passed, (\d+) failed, (\d+) skipped, error: (yes|no)$/m.exec(plain);
+  const passed = Number(m?.[1] ?? 0);
+  const failed = Number(m?.[2] ?? 0);
+  const broken = !m || m[4] === 'yes';
+  const ok = code === 0 && failed === 0 && passed > 0 && !broken;
+  return {
+    name: 'client (Karma)',
+    passed,
+    failed: failed || (ok ? 0 : 1),
+    ok,
+    note: passed === 0 ? 'ran no test' : broken ? 'the run itself broke' : undefined,
+  };
 }
 
 async function copyDatabase(baseUrl: string, name: string): Promise<string> {

@@ -1,0 +1,57 @@
+/**
+ * The prep route under load (autocannon, 50 connections, loopback only, bounded in time) beside
+ * the health route in the same run, on a throwaway cluster holding the demo seed.
+ */
+import autocannon from 'autocannon';
+import type { AddressInfo } from 'node:net';
+import { asc, eq } from 'drizzle-orm';
+import { startTestCluster } from '../support/db.js';
+import { Browser, testApp } from '../support/app.js';
+import { lessons, units } from '../../server/db/schema/index.js';
+import type { BenchRow } from './types.js';
+
+function load(url: string, headers: Record<string, string>): Promise<autocannon.Result> {
+  return autocannon({ url, connections: 50, duration: 5, headers });
+}
+
+export async function benchServer(): Promise<BenchRow[]> {
+  const started = process.env.TRAYPLAN_TEST_PG ? null : await startTestCluster();
+  if (started) process.env.TRAYPLAN_TEST_PG = started.baseUrl;
+  const t = await testApp();
+  const server = t.app.listen(0, '127.0.0.1');
+  await new Promise((r) => server.once('listening', r));
+  const base = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
+  try {
+    const b = new Browser(t.app);
+    const res = await b.signIn('teacher@kestrel-ridge.example');
+    const cookie = ([] as string[])
+      .concat(res.headers['set-cookie'] ?? [])
+      .map((c) => c.split(';')[0])
+      .join('; ');
+    const [unit] = await t.database.db.select().from(units).where(eq(units.title, 'Rescue Rovers'));
+    const [lesson] = await t.database.db
+      .select()
+      .from(lessons)
+      .where(eq(lessons.unitId, unit!.id))
+      .orderBy(asc(lessons.position))
+      .offset(1)
+      .limit(1);
+    const health = await load(`${base}/api/health`, {});
+    const prep = await load(`${base}/api/lessons/${lesson!.id}/prep`, { cookie });
+    if (prep.non2xx > 0) throw new Error(`prep answered ${prep.non2xx} non-2xx responses`);
+    return [
+      { name: 'server: GET /api/health, 50 connections', median: health.latency.p50, unit: 'ms', note: `p99 ${health.latency.p99} ms, ${Math.round(health.requests.average)} req/s` },
+      {
+        name: 'server: GET /api/lessons/:id/prep (demo lesson 2), 50 connections',
+        median: prep.latency.p50,
+        unit: 'ms',
+        ratio: Number((prep.requests.average ? health.requests.average / prep.requests.average : 0).toFixed(1)),
+        note: `p99 ${prep.latency.p99} ms, ${Math.round(prep.requests.average)} req/s; ratio = health req/s ÷ prep req/s`,
+      },
+    ];
+  } finally {
+    server.close();
+    await t.close();
+    started?.cluster.stop();
+  }
+}
