@@ -20,7 +20,10 @@ import { ClassesApi } from './classes-api';
 
 /** A number input's value (a number, or '' / null while empty) checked with the schema's rule. */
 function numberField(schema: z.ZodType, emptyMessage: string) {
-  return zodValidator(z.preprocess((v) => (typeof v === 'string' ? Number(v) : v), schema), emptyMessage);
+  return zodValidator(
+    z.preprocess((v) => (typeof v === 'string' ? Number(v) : v), schema),
+    emptyMessage,
+  );
 }
 
 const shape = classCreateSchema.shape;

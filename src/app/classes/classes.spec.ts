@@ -67,7 +67,9 @@ describe('ClassForm', () => {
     expect(await errorOf('Class name')).toEqual(['Enter a class name, like 4K.']);
     expect(await errorOf('Year level')).toEqual(['Pick a year level.']);
     expect(await errorOf('Number of students')).toEqual(['Enter the number of students.']);
-    expect(await errorOf('Number of devices')).toEqual(['Enter the number of devices (0 if none).']);
+    expect(await errorOf('Number of devices')).toEqual([
+      'Enter the number of devices (0 if none).',
+    ]);
     backend.expectNone('/api/classes');
   });
 
@@ -99,7 +101,12 @@ describe('ClassForm', () => {
     await (await loader.getHarness(MatButtonHarness.with({ text: 'Add class' }))).click();
     const request = backend.expectOne('/api/classes');
     expect(request.request.method).toBe('POST');
-    expect(request.request.body).toEqual({ name: '4M', yearLevel: 4, studentCount: 24, devices: 12 });
+    expect(request.request.body).toEqual({
+      name: '4M',
+      yearLevel: 4,
+      studentCount: 24,
+      devices: 12,
+    });
     const saved = { ...CLASS_4K, id: 'c-4m', name: '4M', studentCount: 24, devices: 12 };
     request.flush({ class: saved }, { status: 201, statusText: 'Created' });
     expect(close).toHaveBeenCalledOnceWith(saved);
@@ -116,13 +123,17 @@ describe('ClassForm', () => {
         error: {
           code: 'name-taken',
           message: 'Another class has this name.',
-          details: [{ path: 'name', message: 'Another class of the school already has this name.' }],
+          details: [
+            { path: 'name', message: 'Another class of the school already has this name.' },
+          ],
         },
       },
       { status: 409, statusText: 'Conflict' },
     );
     fixture.detectChanges();
-    expect(await errorOf('Class name')).toEqual(['Another class of the school already has this name.']);
+    expect(await errorOf('Class name')).toEqual([
+      'Another class of the school already has this name.',
+    ]);
     expect(close).not.toHaveBeenCalled();
   });
 });
@@ -159,7 +170,9 @@ describe('Classes', () => {
 
   it('asks before deleting and shows the refusal of a class that lessons use', async () => {
     await setUp('teacher');
-    await (await loader.getHarness(MatButtonHarness.with({ selector: '[aria-label="Delete 4K"]' }))).click();
+    await (
+      await loader.getHarness(MatButtonHarness.with({ selector: '[aria-label="Delete 4K"]' }))
+    ).click();
     const dialog = await root.getHarness(MatDialogHarness);
     expect(await dialog.getTitleText()).toBe('Delete 4K?');
     await (await dialog.getHarness(MatButtonHarness.with({ text: 'Delete' }))).click();

@@ -102,7 +102,9 @@ describe('ImportDialog', () => {
     expect(alert?.textContent).toContain('The parts list is unchanged');
     expect(close).not.toHaveBeenCalled();
     // The person can fix the file and try again.
-    expect(await (await loader.getHarness(MatButtonHarness.with({ text: 'Import' }))).isDisabled()).toBeFalse();
+    expect(
+      await (await loader.getHarness(MatButtonHarness.with({ text: 'Import' }))).isDisabled(),
+    ).toBeFalse();
     expect(await loader.getAllHarnesses(MatProgressBarHarness)).toEqual([]);
   });
 
@@ -124,7 +126,9 @@ describe('ImportDialog', () => {
     fixture.componentInstance.pick([big]);
     fixture.detectChanges();
     expect(fixture.nativeElement.textContent).toContain('larger than 2 MB');
-    expect(await (await loader.getHarness(MatButtonHarness.with({ text: 'Import' }))).isDisabled()).toBeTrue();
+    expect(
+      await (await loader.getHarness(MatButtonHarness.with({ text: 'Import' }))).isDisabled(),
+    ).toBeTrue();
     backend.expectNone(URL);
   });
 });

@@ -27,8 +27,8 @@ export interface ImportDialogData {
       <p>
         The file replaces the whole parts list of {{ data.kitTypeName }}. Use a CSV with a header
         row: <code>code</code>, <code>name</code> and <code>qty</code> are needed;
-        <code>colour</code>, <code>category</code>, <code>compartment</code>, <code>small</code>
-        and <code>charge_minutes</code> may follow, in any order. At most 2 MB.
+        <code>colour</code>, <code>category</code>, <code>compartment</code>, <code>small</code> and
+        <code>charge_minutes</code> may follow, in any order. At most 2 MB.
       </p>
       <input
         #picker
@@ -38,7 +38,12 @@ export interface ImportDialogData {
         (change)="pick($any($event.target).files)"
       />
       <p>
-        <button matButton="outlined" type="button" [disabled]="uploading()" (click)="picker.click()">
+        <button
+          matButton="outlined"
+          type="button"
+          [disabled]="uploading()"
+          (click)="picker.click()"
+        >
           Choose a CSV file
         </button>
         @if (file(); as f) {
@@ -51,7 +56,9 @@ export interface ImportDialogData {
           [value]="percent() ?? 0"
           aria-label="Uploading the parts list"
         />
-        <p class="muted" role="status">Uploading… {{ percent() === null ? '' : percent() + '%' }}</p>
+        <p class="muted" role="status">
+          Uploading… {{ percent() === null ? '' : percent() + '%' }}
+        </p>
       }
       @if (message(); as text) {
         <p class="form-error" role="alert">{{ text }}</p>

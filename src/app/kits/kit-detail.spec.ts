@@ -25,13 +25,39 @@ function kit(version: number, wheelQty: number): KitType {
     tubCount: 2,
     lessonCount: 8,
     parts: [
-      { id: 'p1', code: 'RB-PEG', name: 'Connector peg', colour: 'Grey', category: 'connector', qty: 40, compartment: 'C', small: true, chargeMinutes: null, hasPhoto: false },
-      { id: 'p2', code: 'RB-WHL', name: 'Wheel', colour: 'Black', category: 'wheel', qty: wheelQty, compartment: 'D', small: false, chargeMinutes: null, hasPhoto: false },
+      {
+        id: 'p1',
+        code: 'RB-PEG',
+        name: 'Connector peg',
+        colour: 'Grey',
+        category: 'connector',
+        qty: 40,
+        compartment: 'C',
+        small: true,
+        chargeMinutes: null,
+        hasPhoto: false,
+      },
+      {
+        id: 'p2',
+        code: 'RB-WHL',
+        name: 'Wheel',
+        colour: 'Black',
+        category: 'wheel',
+        qty: wheelQty,
+        compartment: 'D',
+        small: false,
+        chargeMinutes: null,
+        hasPhoto: false,
+      },
     ],
   };
 }
 
-function tub(label: string, status: TubSummary['status'], missing: TubSummary['missing']): TubSummary {
+function tub(
+  label: string,
+  status: TubSummary['status'],
+  missing: TubSummary['missing'],
+): TubSummary {
   return {
     id: `tub-${label}`,
     kitTypeId: KIT_ID,
@@ -81,13 +107,21 @@ describe('KitDetail', () => {
       ],
     });
     backend.expectOne(`/api/kit-types/${KIT_ID}/replacements`).flush({
-      lines: [{ partCode: 'RB-WHL', name: 'Wheel', missing: 1, tubs: [{ label: 'Tub 5', count: 1 }] }],
+      lines: [
+        { partCode: 'RB-WHL', name: 'Wheel', missing: 1, tubs: [{ label: 'Tub 5', count: 1 }] },
+      ],
     });
     backend.expectOne('/api/school').flush({ school: SCHOOL });
     backend
       .expectOne((r) => r.url === '/api/conflicts')
       .flush({
-        conflicts: [{ lessons: [], tubs: ['Tub 3'], message: '"Lesson 2" and "Lesson 9" overlap and both book Tub 3.' }],
+        conflicts: [
+          {
+            lessons: [],
+            tubs: ['Tub 3'],
+            message: '"Lesson 2" and "Lesson 9" overlap and both book Tub 3.',
+          },
+        ],
         rechargeGaps: [],
       });
     fixture.detectChanges();
@@ -138,13 +172,19 @@ describe('KitDetail', () => {
   it('hides the edit controls from a lead', async () => {
     await setUp('lead');
     expect(await loader.getAllHarnesses(MatButtonHarness.with({ text: /Import CSV/ }))).toEqual([]);
-    expect(await loader.getAllHarnesses(MatButtonHarness.with({ selector: '[aria-label^="Edit"]' }))).toEqual([]);
+    expect(
+      await loader.getAllHarnesses(MatButtonHarness.with({ selector: '[aria-label^="Edit"]' })),
+    ).toEqual([]);
   });
 
   it('sends the version with an edit and, on 409, shows the list saved now and re-applies on request', async () => {
     await setUp('teacher');
-    await (await loader.getHarness(MatButtonHarness.with({ selector: '[aria-label="Edit RB-WHL"]' }))).click();
-    await (await loader.getHarness(MatInputHarness.with({ selector: '[aria-label="Name"]' }))).setValue('Big wheel');
+    await (
+      await loader.getHarness(MatButtonHarness.with({ selector: '[aria-label="Edit RB-WHL"]' }))
+    ).click();
+    await (
+      await loader.getHarness(MatInputHarness.with({ selector: '[aria-label="Name"]' }))
+    ).setValue('Big wheel');
     await (await loader.getHarness(MatButtonHarness.with({ text: 'Save' }))).click();
     const first = backend.expectOne(`/api/kit-types/${KIT_ID}/parts/p2`);
     expect(first.request.method).toBe('PATCH');
@@ -164,11 +204,19 @@ describe('KitDetail', () => {
     await (await loader.getHarness(MatButtonHarness.with({ text: 'Re-apply my change' }))).click();
     const second = backend.expectOne(`/api/kit-types/${KIT_ID}/parts/p2`);
     expect(second.request.body).toEqual({ version: 4, name: 'Big wheel' });
-    second.flush({ kitType: { ...kit(5, 6), parts: kit(5, 6).parts.map((p) => (p.id === 'p2' ? { ...p, name: 'Big wheel' } : p)) } });
+    second.flush({
+      kitType: {
+        ...kit(5, 6),
+        parts: kit(5, 6).parts.map((p) => (p.id === 'p2' ? { ...p, name: 'Big wheel' } : p)),
+      },
+    });
     backend.expectOne(`/api/tubs?kitTypeId=${KIT_ID}`).flush({ tubs: [] });
     fixture.detectChanges();
     await fixture.whenStable();
-    expect((await table.getCellTextByColumnName())['name']?.text).toEqual(['Connector peg', 'Big wheel']);
+    expect((await table.getCellTextByColumnName())['name']?.text).toEqual([
+      'Connector peg',
+      'Big wheel',
+    ]);
     expect((fixture.nativeElement as HTMLElement).querySelector('.form-error')).toBeNull();
   });
 });

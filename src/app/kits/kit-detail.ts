@@ -62,7 +62,6 @@ export class KitDetail {
   private readonly notifier = inject(Notifier);
   private readonly session = inject(Session);
 
-  protected readonly statusLabels = TUB_STATUS_LABELS;
   protected readonly tubColumns = ['label', 'controllerLabel', 'status', 'missing', 'open'];
   protected readonly replacementColumns = ['partCode', 'name', 'missing', 'tubs'];
   protected readonly kit = signal<KitType | null>(null);
@@ -101,6 +100,11 @@ export class KitDetail {
 
   protected tubsText(line: ReplacementLine): string {
     return line.tubs.map((t) => `${t.label} (${t.count})`).join(', ');
+  }
+
+  /** The status in words ("Needs sorting"), never the code. */
+  protected statusLabel(tub: TubSummary): string {
+    return TUB_STATUS_LABELS[tub.status];
   }
 
   protected missingText(tub: TubSummary): string {

@@ -7,7 +7,6 @@ import {
   kitTypeResponseSchema,
   partsImportResultSchema,
   tubAuditListSchema,
-  tubAuditSchema,
   tubListSchema,
   tubResponseSchema,
   type KitType,
@@ -48,10 +47,7 @@ export type PartChange = Partial<Omit<Part, 'id' | 'hasPhoto'>>;
 
 /** Progress of a CSV upload, then its result. */
 export type ImportProgress =
-  | { kind: 'progress'; percent: number | null }
-  | { kind: 'done'; imported: number };
-
-const auditResponseSchema = z.object({ audit: tubAuditSchema });
+  { kind: 'progress'; percent: number | null } | { kind: 'done'; imported: number };
 
 /** Kit types, parts lists, tubs, audits and the kit reports (`/api/kit-types`, `/api/tubs`). */
 @Injectable({ providedIn: 'root' })
@@ -158,17 +154,19 @@ export class KitsApi {
     );
   }
 
-  /** The audit form shows this request's errors itself. */
-  createAudit(tubId: string, body: TubAuditCreate): Observable<unknown> {
+  /** The audit form shows this request's errors itself; the dialog then reloads the tub. */
+  createAudit(tubId: string, body: TubAuditCreate): Observable<void> {
     return this.http
       .post(`/api/tubs/${encodeURIComponent(tubId)}/audits`, body, {
         context: callerShowsErrors(),
       })
-      .pipe(map((b) => auditResponseSchema.safeParse(b).data ?? b));
+      .pipe(map(() => undefined));
   }
 
   conflicts(from: string, to: string): Observable<Conflicts> {
-    return this.http.get('/api/conflicts', { params: { from, to } }).pipe(parseWith(conflictsSchema));
+    return this.http
+      .get('/api/conflicts', { params: { from, to } })
+      .pipe(parseWith(conflictsSchema));
   }
 
   /** The school's terms, for the default range of the conflicts. */

@@ -25,10 +25,42 @@ function part(over: Partial<Part> & Pick<Part, 'id' | 'code' | 'name'>): Part {
 }
 
 const PARTS: Part[] = [
-  part({ id: 'p1', code: 'RB-CTL', name: 'Rover controller', category: 'controller', qty: 1, chargeMinutes: 180, compartment: 'A' }),
-  part({ id: 'p2', code: 'RB-MOT', name: 'Drive motor', category: 'motor', qty: 2, compartment: 'B' }),
-  part({ id: 'p3', code: 'RB-PEG', name: 'Connector peg', colour: 'Grey', category: 'connector', qty: 40, small: true, compartment: 'C' }),
-  part({ id: 'p4', code: 'RB-WHL', name: 'Wheel', colour: 'Black', category: 'wheel', qty: 4, compartment: 'D' }),
+  part({
+    id: 'p1',
+    code: 'RB-CTL',
+    name: 'Rover controller',
+    category: 'controller',
+    qty: 1,
+    chargeMinutes: 180,
+    compartment: 'A',
+  }),
+  part({
+    id: 'p2',
+    code: 'RB-MOT',
+    name: 'Drive motor',
+    category: 'motor',
+    qty: 2,
+    compartment: 'B',
+  }),
+  part({
+    id: 'p3',
+    code: 'RB-PEG',
+    name: 'Connector peg',
+    colour: 'Grey',
+    category: 'connector',
+    qty: 40,
+    small: true,
+    compartment: 'C',
+  }),
+  part({
+    id: 'p4',
+    code: 'RB-WHL',
+    name: 'Wheel',
+    colour: 'Black',
+    category: 'wheel',
+    qty: 4,
+    compartment: 'D',
+  }),
 ];
 
 describe('PartsTable', () => {
@@ -68,7 +100,9 @@ describe('PartsTable', () => {
       chargeMinutes: '180',
     });
     // No edit column for someone who may not edit.
-    expect(await loader.getAllHarnesses(MatButtonHarness.with({ selector: '[aria-label^="Edit"]' }))).toEqual([]);
+    expect(
+      await loader.getAllHarnesses(MatButtonHarness.with({ selector: '[aria-label^="Edit"]' })),
+    ).toEqual([]);
   });
 
   it('filters by code, name, colour, category or compartment', async () => {
@@ -97,7 +131,12 @@ describe('PartsTable', () => {
     expect(await column('qty')).toEqual(['40', '4', '2', '1']);
     const [name] = await sort.getSortHeaders({ label: 'Name' });
     await name!.click();
-    expect(await column('name')).toEqual(['Connector peg', 'Drive motor', 'Rover controller', 'Wheel']);
+    expect(await column('name')).toEqual([
+      'Connector peg',
+      'Drive motor',
+      'Rover controller',
+      'Wheel',
+    ]);
   });
 
   it('pages a long list', async () => {
@@ -115,8 +154,12 @@ describe('PartsTable', () => {
     await setUp(PARTS, true);
     const saves: PartSave[] = [];
     fixture.componentInstance.save.subscribe((s) => saves.push(s));
-    await (await loader.getHarness(MatButtonHarness.with({ selector: '[aria-label="Edit RB-WHL"]' }))).click();
-    const qty = await loader.getHarness(MatInputHarness.with({ selector: '[aria-label="Qty per tub"]' }));
+    await (
+      await loader.getHarness(MatButtonHarness.with({ selector: '[aria-label="Edit RB-WHL"]' }))
+    ).click();
+    const qty = await loader.getHarness(
+      MatInputHarness.with({ selector: '[aria-label="Qty per tub"]' }),
+    );
     expect(await qty.getValue()).toBe('4');
     await qty.setValue('6');
     await (await loader.getHarness(MatButtonHarness.with({ text: 'Save' }))).click();
@@ -129,8 +172,12 @@ describe('PartsTable', () => {
     await setUp(PARTS, true);
     const saves: PartSave[] = [];
     fixture.componentInstance.save.subscribe((s) => saves.push(s));
-    await (await loader.getHarness(MatButtonHarness.with({ selector: '[aria-label="Edit RB-PEG"]' }))).click();
-    const qty = await loader.getHarness(MatInputHarness.with({ selector: '[aria-label="Qty per tub"]' }));
+    await (
+      await loader.getHarness(MatButtonHarness.with({ selector: '[aria-label="Edit RB-PEG"]' }))
+    ).click();
+    const qty = await loader.getHarness(
+      MatInputHarness.with({ selector: '[aria-label="Qty per tub"]' }),
+    );
     await qty.setValue('2.5');
     await (await loader.getHarness(MatButtonHarness.with({ text: 'Save' }))).click();
     expect(saves).toEqual([]);

@@ -37,11 +37,9 @@ export interface PartSave {
 }
 
 const wholeIn = (min: number, max: number) =>
-  z.coerce
-    .number()
-    .refine((v) => Number.isInteger(v) && v >= min && v <= max, {
-      error: `Use a whole number from ${min} to ${max}.`,
-    });
+  z.coerce.number().refine((v) => Number.isInteger(v) && v >= min && v <= max, {
+    error: `Use a whole number from ${min} to ${max}.`,
+  });
 
 /**
  * A kit type's parts list: sort, filter and pages, and (for those who may edit) one row at a
@@ -112,10 +110,7 @@ export class PartsTable {
     small: new FormControl(false, { nonNullable: true }),
     chargeMinutes: new FormControl<number | null>(null, {
       validators: [
-        (c) =>
-          c.value === null || c.value === ''
-            ? null
-            : zodValidator(wholeIn(1, 1440))(c),
+        (c) => (c.value === null || c.value === '' ? null : zodValidator(wholeIn(1, 1440))(c)),
       ],
     }),
   });

@@ -54,6 +54,11 @@ export class UnitList {
   protected readonly terms = TERMS;
   protected readonly statuses = UNIT_STATUSES;
   protected readonly statusLabels = UNIT_STATUS_LABELS;
+
+  /** The status in words; takes the typed row (a table cell's `let` row is untyped). */
+  protected statusLabel(unit: UnitSummary): string {
+    return UNIT_STATUS_LABELS[unit.status];
+  }
   protected readonly columns = ['title', 'area', 'yearLevel', 'term', 'status', 'owner', 'lessons', 'updated'];
 
   protected readonly scope = signal<UnitFilters['scope']>('mine');

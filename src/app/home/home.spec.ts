@@ -1,0 +1,101 @@
+import type { HarnessLoader } from '@angular/cdk/testing';
+import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
+import { HttpTestingController } from '@angular/common/http/testing';
+import { TestBed, type ComponentFixture } from '@angular/core/testing';
+import { MatButtonHarness } from '@angular/material/button/testing';
+import { Session } from '../auth/session';
+import { demoUser, testProviders } from '../testing/test-providers';
+import { addDays, mondayOf, today, type Agenda } from './agenda-api';
+import { Home } from './home';
+
+const LESSON = {
+  id: 'lesson-2',
+  title: 'Drive train',
+  unitId: 'unit-rovers',
+  unitTitle: 'Rescue Rovers',
+  className: '4K',
+  startsAt: '2026-07-28T11:10',
+  endsAt: '2026-07-28T12:00',
+};
+
+/** An invented week; the task times follow PREP-RULES.md's worked example (charge by 07:55). */
+const WEEK: Agenda = {
+  week: '2026-07-27',
+  lessons: [{ ...LESSON, groups: 7, shortfalls: 1 }],
+  tasks: [
+    { kind: 'charge', label: 'Charge 7 × Controller', minutes: 180, startBy: '2026-07-28T07:55:00+09:30', doneBy: '2026-07-28T10:55:00+09:30', lesson: LESSON },
+    { kind: 'pull', label: 'Pull parts for 7 groups', minutes: 12, startBy: '2026-07-28T10:58:00+09:30', doneBy: '2026-07-28T11:10:00+09:30', lesson: LESSON },
+  ],
+  attention: [{ lesson: LESSON, kind: 'shortfall', message: '1 × RB-001 short for group 7.' }],
+};
+
+describe('mondayOf and addDays', () => {
+  it('finds the Monday of a week (ISO 8601 weeks start on Monday)', () => {
+    // 2026-07-28 is a Tuesday, 2026-08-02 a Sunday (Python datetime.date(...).strftime('%a')).
+    expect(mondayOf('2026-07-28')).toBe('2026-07-27');
+    expect(mondayOf('2026-08-02')).toBe('2026-07-27');
+    expect(mondayOf('2026-07-27')).toBe('2026-07-27');
+    expect(addDays('2026-07-27', 7)).toBe('2026-08-03');
+    expect(addDays('2026-03-02', -7)).toBe('2026-02-23');
+  });
+});
+
+describe('Home', () => {
+  let fixture: ComponentFixture<Home>;
+  let loader: HarnessLoader;
+  let backend: HttpTestingController;
+
+  beforeEach(async () => {
+    TestBed.configureTestingModule({ providers: testProviders() });
+    TestBed.inject(Session).update(demoUser('teacher'));
+    backend = TestBed.inject(HttpTestingController);
+    fixture = TestBed.createComponent(Home);
+    loader = TestbedHarnessEnvironment.loader(fixture);
+    fixture.detectChanges();
+    await fixture.whenStable();
+  });
+
+  afterEach(() => backend.verify());
+
+  const url = (week: string) => `/api/agenda?week=${week}&mine=true`;
+
+  it('asks for this week and, when it is empty, links to the demo term’s first week', async () => {
+    const current = mondayOf(today());
+    backend.expectOne(url(current)).flush({ week: current, lessons: [], tasks: [], attention: [] });
+    await fixture.whenStable();
+    expect((fixture.nativeElement as HTMLElement).textContent).toContain(
+      'Nothing planned for you this week.',
+    );
+    await (await loader.getHarness(MatButtonHarness.with({ text: /week of 27 July 2026/ }))).click();
+    backend.expectOne(url('2026-07-27')).flush(WEEK);
+    await fixture.whenStable();
+    const el = fixture.nativeElement as HTMLElement;
+    expect(el.querySelector('.lessons a')!.getAttribute('href')).toBe('/lessons/lesson-2');
+    expect(el.querySelector('.lessons')!.textContent).toContain('Tue 28 Jul, 11:10 am–12:00 pm');
+    const tasks = Array.from(el.querySelectorAll('.tasks li')).map((li) =>
+      li.textContent!.replace(/\s+/g, ' ').trim(),
+    );
+    expect(tasks[0]).toContain('Tue 28 Jul, 7:55 am Charge 7 × Controller');
+    expect(tasks[1]).toContain('10:58 am Pull parts');
+    expect(el.querySelector('.attention')!.textContent).toContain('1 × RB-001 short for group 7.');
+  });
+
+  it('moves to the previous and next week', async () => {
+    const current = mondayOf(today());
+    backend.expectOne(url(current)).flush(WEEK);
+    await fixture.whenStable();
+    await (await loader.getHarness(MatButtonHarness.with({ selector: '[aria-label="Next week"]' }))).click();
+    backend.expectOne(url(addDays(current, 7))).flush(WEEK);
+    await fixture.whenStable();
+    const previous = () =>
+      loader.getHarness(MatButtonHarness.with({ selector: '[aria-label="Previous week"]' }));
+    await (await previous()).click();
+    backend.expectOne(url(current)).flush(WEEK);
+    await (await previous()).click();
+    backend.expectOne(url(addDays(current, -7))).flush(WEEK);
+    await fixture.whenStable();
+    expect((fixture.nativeElement as HTMLElement).querySelector('h2')!.textContent).toContain(
+      addDays(current, -7).slice(8, 10).replace(/^0/, ''),
+    );
+  });
+});
