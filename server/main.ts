@@ -8,6 +8,7 @@ import { openDatabase, runMigrations, type Database } from './db/client.js';
 import { createApp } from './app.js';
 import { createMailTransport, startOutboxWorker, type OutboxWorker } from './mail/outbox.js';
 import type { DevMail } from '../shared/schemas/members.js';
+import { closePdfPool } from './pdf/pool.js';
 
 export interface Running {
   server: Server;
@@ -53,7 +54,7 @@ export async function serve(
           // Requests still running after 10 s are cut so a stop never hangs.
           setTimeout(() => server.closeAllConnections(), 10_000).unref();
         });
-        await outbox.stop();
+        await Promise.all([outbox.stop(), closePdfPool()]);
         await database.pool.end();
       })()),
   };

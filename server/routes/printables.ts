@@ -1,7 +1,163 @@
-import { Router } from 'express';
+/**
+ * Printables: the lesson pack, tray labels and prep calendar of a lesson, and the pack and prep
+ * calendar of a unit. Each request reads the data in one read-only snapshot, computes the prep
+ * plan, and (for PDFs) hands a plain JSON job to the worker pool; nothing is cached, so a file
+ * always matches what is stored at that moment. Read access as for the lesson or unit itself.
+ *
+ * Mounted at the API root (before the lessons routers), so paths are written out in full.
+ */
+import { Router, type Request, type Response } from 'express';
 import type { AppContext } from '../context.js';
+import type { Tx } from '../db/client.js';
+import { HttpError, notFound, parseParams } from '../http.js';
+import { requireActor } from '../auth/session.js';
+import { readableLesson, readableUnit } from '../planning/access.js';
+import { idParamsSchema } from '../../shared/schemas/common.js';
+import type { LessonPackModel, RenderJob } from '../pdf/model.js';
+import { loadLessonPack, loadPrintContext, loadUnitPack } from '../pdf/load.js';
+import { PdfBusyError, renderInPool } from '../pdf/pool.js';
+import { attachment, lessonFileStem, unitFileStem } from '../pdf/names.js';
+import { prepCalendar } from '../calendar/prep-calendar.js';
 
-/** Placeholder until the printables land (lesson and unit packs, tray labels, prep calendar). */
-export function printablesRouter(_ctx: AppContext): Router {
-  return Router();
+type Snapshot = <T>(work: (tx: Tx) => Promise<T>) => Promise<T>;
+
+function unplannable(lesson: LessonPackModel): HttpError {
+  return new HttpError(
+    422,
+    'lesson-not-plannable',
+    'This lesson cannot be planned yet, so there is nothing to print.',
+    lesson.problems.map((message) => ({ path: '', message })),
+  );
+}
+
+/** Renders on the pool; gives up (quietly) if the client has gone, 503 when the pool is full. */
+async function render(res: Response, job: RenderJob): Promise<Uint8Array | null> {
+  const gone = new AbortController();
+  res.on('close', () => {
+    if (!res.writableEnded) gone.abort();
+  });
+  try {
+    return await renderInPool(job, gone.signal);
+  } catch (err) {
+    if (gone.signal.aborted) return null;
+    if (err instanceof PdfBusyError || (err as Error).name === 'AbortError') {
+      throw new HttpError(
+        503,
+        'printing-busy',
+        'Trayplan is busy making other files. Try again in a moment.',
+        undefined,
+        {
+          headers: { 'Retry-After': '5' },
+        },
+      );
+    }
+    throw err;
+  }
+}
+
+function send(res: Response, type: string, filename: string, body: Uint8Array | string): void {
+  res.setHeader('Content-Type', type);
+  res.setHeader('Content-Disposition', attachment(filename));
+  res.send(
+    typeof body === 'string' ? body : Buffer.from(body.buffer, body.byteOffset, body.byteLength),
+  );
+}
+
+/** The printables routes (see the file comment). */
+export function printablesRouter(ctx: AppContext): Router {
+  const router = Router();
+  const snapshot: Snapshot = (work) =>
+    ctx.db.transaction(work, { isolationLevel: 'repeatable read', accessMode: 'read only' });
+  const groupUrl = (lessonId: string, group: number) =>
+    `${ctx.config.appUrl.replace(/\/+$/, '')}/lessons/${lessonId}/prep?group=${group}`;
+  const lessonUrl = (lessonId: string) =>
+    `${ctx.config.appUrl.replace(/\/+$/, '')}/lessons/${lessonId}/prep`;
+
+  /** The lesson's model and print context, after the read check (404 when not readable). */
+  async function lessonFor(req: Request) {
+    const actor = requireActor(req);
+    const { id } = parseParams(idParamsSchema, req);
+    // The one clock reading of the request: the time printed on every page.
+    const generatedAt = new Date();
+    return snapshot(async (tx) => {
+      await readableLesson(tx, actor, id);
+      const lesson = await loadLessonPack(tx, id);
+      if (!lesson) throw notFound('That lesson');
+      return { lesson, print: await loadPrintContext(tx, actor.schoolId, generatedAt) };
+    });
+  }
+
+  async function unitFor(req: Request) {
+    const actor = requireActor(req);
+    const { id } = parseParams(idParamsSchema, req);
+    const generatedAt = new Date();
+    return snapshot(async (tx) => {
+      await readableUnit(tx, actor, id);
+      const unit = await loadUnitPack(tx, id);
+      if (!unit) throw notFound('That unit');
+      return { ...unit, print: await loadPrintContext(tx, actor.schoolId, generatedAt) };
+    });
+  }
+
+  router.get('/lessons/:id/pack.pdf', async (req, res) => {
+    const { lesson, print } = await lessonFor(req);
+    if (!lesson.plan) throw unplannable(lesson);
+    const bytes = await render(res, { kind: 'lesson-pack', print, lesson });
+    if (bytes) send(res, 'application/pdf', `${lessonFileStem(lesson)}.pdf`, bytes);
+  });
+
+  router.get('/lessons/:id/labels.pdf', async (req, res) => {
+    const { lesson, print } = await lessonFor(req);
+    const plan = lesson.plan;
+    if (!plan) throw unplannable(lesson);
+    const groupUrls = plan.groups.map((g) => groupUrl(lesson.id, g.number));
+    const bytes = await render(res, {
+      kind: 'labels',
+      print,
+      lesson: { ...lesson, plan },
+      groupUrls,
+    });
+    if (bytes) send(res, 'application/pdf', `${lessonFileStem(lesson)}-tray-labels.pdf`, bytes);
+  });
+
+  router.get('/lessons/:id/prep.ics', async (req, res) => {
+    const { lesson, print } = await lessonFor(req);
+    if (!lesson.plan) throw unplannable(lesson);
+    const text = prepCalendar({
+      name: `Trayplan prep: ${lesson.unitTitle}, lesson ${lesson.number}`,
+      timezone: print.timezone,
+      generatedAt: print.generatedAt,
+      lessons: [lesson],
+      lessonUrl,
+    });
+    send(res, 'text/calendar; charset=utf-8', `${lessonFileStem(lesson)}-prep.ics`, text);
+  });
+
+  router.get('/units/:id/pack.pdf', async (req, res) => {
+    const { unit, lessons, print } = await unitFor(req);
+    const bytes = await render(res, { kind: 'unit-pack', print, unit, lessons });
+    const stem = unitFileStem(
+      unit.title,
+      lessons.map((l) => l.className),
+    );
+    if (bytes) send(res, 'application/pdf', `${stem}-unit-pack.pdf`, bytes);
+  });
+
+  router.get('/units/:id/prep.ics', async (req, res) => {
+    const { unit, lessons, print } = await unitFor(req);
+    const text = prepCalendar({
+      name: `Trayplan prep: ${unit.title}`,
+      timezone: print.timezone,
+      generatedAt: print.generatedAt,
+      lessons,
+      lessonUrl,
+    });
+    const stem = unitFileStem(
+      unit.title,
+      lessons.map((l) => l.className),
+    );
+    send(res, 'text/calendar; charset=utf-8', `${stem}-prep.ics`, text);
+  });
+
+  return router;
 }

@@ -7,12 +7,13 @@ import os from 'node:os';
 import { fileURLToPath } from 'node:url';
 import { benchEngine } from './engine.js';
 import { benchServer } from './server.js';
+import { benchPdf } from './pdf.js';
 import type { BenchModule, BenchRow } from './types.js';
 
 const BENCHES: { name: string; run: BenchModule }[] = [
   { name: 'engine', run: benchEngine },
   { name: 'server', run: benchServer },
-  // { name: 'pdf', run: benchPdf },        (tests/bench/pdf.ts)
+  { name: 'pdf', run: benchPdf },
 ];
 
 function table(rows: BenchRow[]): string {

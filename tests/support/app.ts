@@ -11,6 +11,7 @@ import { createMailTransport, startOutboxWorker, type OutboxWorker } from '../..
 import { startFakeSmtp, type FakeSmtp } from '../../server/mail/fake-smtp.js';
 import { DEMO_PASSWORD } from '../../server/seed/index.js';
 import { freshDatabase, type TestDatabase } from './db.js';
+import { closePdfPool } from '../../server/pdf/pool.js';
 
 export interface TestApp {
   app: Express;
@@ -47,6 +48,7 @@ export async function testApp(): Promise<TestApp> {
     outbox,
     close: async () => {
       await outbox.stop();
+      await closePdfPool();
       await smtp.close();
       await database.drop();
     },

@@ -1,0 +1,121 @@
+/**
+ * PDF rendering runs off the event loop: a lazily started pool of worker threads (piscina),
+ * running the TypeScript worker under tsx, closed by `closePdfPool()`. While four unit packs
+ * render at once, `GET /api/health` still answers within 250 ms (a bound of our own choosing:
+ * a quarter of a second is where a wait starts to be noticed; common practice, no published
+ * source).
+ */
+import { after, before, describe, it } from 'node:test';
+import assert from 'node:assert/strict';
+import { readdirSync, readFileSync } from 'node:fs';
+import { eq } from 'drizzle-orm';
+import { Browser, signedIn, testApp, type TestApp } from '../support/app.js';
+import { units } from '../../server/db/schema/index.js';
+import {
+  closePdfPool,
+  PDF_THREADS,
+  PDF_WORKER_EXEC_ARGV,
+  PDF_WORKER_FILE,
+  pdfPoolState,
+} from '../../server/pdf/pool.js';
+
+const HEALTH_BOUND_MS = 250;
+
+let t: TestApp;
+let teacher: Browser;
+let unitId = '';
+
+async function download(b: Browser, url: string) {
+  return b.agent
+    .get(url)
+    .buffer(true)
+    .parse((res, done) => {
+      const chunks: Buffer[] = [];
+      res.on('data', (c: Buffer) => chunks.push(c));
+      res.on('end', () => done(null, Buffer.concat(chunks)));
+    });
+}
+
+async function until(condition: () => boolean, timeoutMs: number): Promise<void> {
+  const end = Date.now() + timeoutMs;
+  while (!condition()) {
+    if (Date.now() > end) throw new Error('timed out waiting');
+    await new Promise((r) => setTimeout(r, 10));
+  }
+}
+
+/** Nice values of this process's threads (Linux: /proc/self/task/<tid>/stat, field 19). */
+function threadNiceValues(): number[] {
+  return readdirSync('/proc/self/task').map((tid) => {
+    const stat = readFileSync(`/proc/self/task/${tid}/stat`, 'utf8');
+    return Number(stat.slice(stat.lastIndexOf(')') + 2).split(' ')[16]);
+  });
+}
+
+before(async () => {
+  t = await testApp();
+  teacher = await signedIn(t.app, 'teacher@kestrel-ridge.example');
+  const [unit] = await t.database.db.select().from(units).where(eq(units.title, 'Rescue Rovers'));
+  unitId = unit!.id;
+});
+after(async () => {
+  await closePdfPool();
+  await t.close();
+});
+
+describe('the PDF worker pool', () => {
+  it('is not started by building the app or by requests that render nothing', async () => {
+    assert.deepEqual(pdfPoolState(), { started: false, threads: 0, inFlight: 0 });
+    assert.equal((await new Browser(t.app).get('/api/health')).status, 200);
+    assert.equal((await teacher.get(`/api/units/${unitId}/prep.ics`)).status, 200);
+    assert.equal(pdfPoolState().started, false);
+  });
+
+  it('starts on the first render, running the TypeScript worker under tsx, at a lower priority', async () => {
+    assert.match(PDF_WORKER_FILE, /server\/pdf\/worker\.ts$/);
+    assert.deepEqual(PDF_WORKER_EXEC_ARGV, ['--import', 'tsx']);
+    const res = await download(teacher, `/api/units/${unitId}/pack.pdf`);
+    assert.equal(res.status, 200);
+    assert.equal((res.body as Buffer).subarray(0, 5).toString(), '%PDF-');
+    assert.deepEqual(pdfPoolState(), { started: true, threads: PDF_THREADS, inFlight: 0 });
+    if (process.platform === 'linux') {
+      assert.ok(threadNiceValues().includes(10), 'render threads at nice +10');
+      assert.ok(threadNiceValues().includes(0), 'the main thread at normal priority');
+    }
+  });
+
+  it(`answers GET /api/health within ${HEALTH_BOUND_MS} ms while four unit packs render`, async () => {
+    const anonymous = new Browser(t.app);
+    const packs = [1, 2, 3, 4].map(() => download(teacher, `/api/units/${unitId}/pack.pdf`));
+    // Wait until all four are loaded and handed to the pool: two rendering, two queued.
+    await until(() => pdfPoolState().inFlight === 4, 30_000);
+    const latencies: number[] = [];
+    for (let i = 0; i < 10; i++) {
+      const start = performance.now();
+      const res = await anonymous.get('/api/health');
+      latencies.push(performance.now() - start);
+      assert.equal(res.status, 200);
+      assert.deepEqual(res.body, { status: 'ok', db: 'ok' });
+    }
+    // The renders were still running when the last health check came back.
+    assert.ok(pdfPoolState().inFlight > 0, 'packs still rendering');
+    assert.ok(
+      Math.max(...latencies) < HEALTH_BOUND_MS,
+      `health took ${latencies.map((l) => l.toFixed(1)).join(', ')} ms`,
+    );
+    for (const res of await Promise.all(packs)) {
+      assert.equal(res.status, 200);
+      assert.equal((res.body as Buffer).subarray(0, 5).toString(), '%PDF-');
+    }
+    assert.equal(pdfPoolState().inFlight, 0);
+  });
+
+  it('closes on closePdfPool() and starts again for the next file', async () => {
+    await closePdfPool();
+    assert.deepEqual(pdfPoolState(), { started: false, threads: 0, inFlight: 0 });
+    await closePdfPool();
+    const res = await download(teacher, `/api/units/${unitId}/pack.pdf`);
+    assert.equal(res.status, 200);
+    assert.equal(pdfPoolState().started, true);
+  });
+});
