@@ -27,6 +27,7 @@ import { prepRouter } from './routes/prep.js';
 import { printablesRouter } from './routes/printables.js';
 import { agendaRouter, conflictsRouter } from './routes/agenda.js';
 import { replacementsRouter } from './routes/replacements.js';
+import { reliefRouter } from './routes/relief.js';
 
 export const clientDir = fileURLToPath(new URL('../dist/trayplan/browser', import.meta.url));
 
@@ -70,6 +71,7 @@ function api(ctx: AppContext, options: AppOptions): express.Router {
   router.use('/outcomes', outcomesRouter(ctx));
   router.use('/units', unitsRouter(ctx));
   router.use('/agenda', agendaRouter(ctx));
+  router.use('/relief', reliefRouter(ctx));
   router.use('/conflicts', conflictsRouter(ctx));
   router.use(printablesRouter(ctx));
   router.use('/lessons', prepRouter(ctx));

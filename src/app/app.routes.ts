@@ -30,6 +30,11 @@ export const routes: Routes = [
         loadChildren: () => import('./lessons/lessons.routes').then((m) => m.LESSONS_ROUTES),
       },
       {
+        path: 'outcomes',
+        canActivate: [roleGuard(AREA_ROLES.outcomes)],
+        loadChildren: () => import('./outcomes/outcomes.routes').then((m) => m.OUTCOMES_ROUTES),
+      },
+      {
         path: 'kits',
         canActivate: [roleGuard(AREA_ROLES.kits)],
         loadChildren: () => import('./kits/kits.routes').then((m) => m.KITS_ROUTES),

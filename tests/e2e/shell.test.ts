@@ -15,9 +15,9 @@ after(async () => {
 const NAV: Record<string, string[]> = {
   'teacher@kestrel-ridge.example': ['Home', 'Units', 'Kits', 'Classes'],
   'partner@kestrel-ridge.example': ['Home', 'Units', 'Kits', 'Classes'],
-  'lead@kestrel-ridge.example': ['Home', 'Units', 'Review'],
+  'lead@kestrel-ridge.example': ['Home', 'Units', 'Review', 'Outcomes'],
   'relief@kestrel-ridge.example': ['Home', 'Relief'],
-  'admin@kestrel-ridge.example': ['Home', 'Kits', 'Classes', 'School', 'Members', 'Mail outbox (development)'],
+  'admin@kestrel-ridge.example': ['Home', 'Kits', 'Classes', 'Outcomes', 'School', 'Members', 'Mail outbox (development)'],
 };
 
 describe('sign-in and the shell', () => {

@@ -24,7 +24,7 @@ import { Notifier } from '../errors/notifier';
 import { CAUTIONS_DEFER, SAFETY_CAUTIONS } from './cautions';
 import { clockOn, clockTime, dayLabel } from './clock';
 import { groupSizeFor } from './group-size';
-import { LessonsApi, type Printable } from './lessons-api';
+import { LessonsApi, saveBlob, type Printable } from './lessons-api';
 import { GroupBorrowsPipe } from './group-borrows';
 import { PullList } from './pull-list';
 import { Timeline } from './timeline';
@@ -156,10 +156,10 @@ export class LessonView {
         if (event.kind === 'progress') this.download.set({ file, fraction: event.fraction });
         else {
           this.download.set(null);
-          saveBlob(event.blob, fileName(this.lesson(), file));
+          saveBlob(event.blob, event.name ?? fileName(this.lesson(), file));
         }
       },
-      // The interceptor has shown the error (e.g. a 404 while the printables are not served).
+      // The interceptor has shown the error.
       error: () => this.download.set(null),
     });
   }
@@ -233,12 +233,3 @@ function fileName(lesson: Lesson | null, file: Printable): string {
   return `${base || 'lesson'}-${file}`;
 }
 
-/** Hands a downloaded file to the browser under its name. */
-function saveBlob(blob: Blob, name: string): void {
-  const url = URL.createObjectURL(blob);
-  const link = document.createElement('a');
-  link.href = url;
-  link.download = name;
-  link.click();
-  setTimeout(() => URL.revokeObjectURL(url));
-}

@@ -1,15 +1,10 @@
 import type { Routes } from '@angular/router';
-import { PagePlaceholder } from '../shell/page-placeholder';
 
-/** The Relief area; its screens replace the placeholder. */
+/** The Relief area: the lessons assigned to the signed-in relief teacher. */
 export const RELIEF_ROUTES: Routes = [
   {
     path: '',
     title: 'Relief',
-    component: PagePlaceholder,
-    data: {
-      heading: 'Relief',
-      purpose: 'The lessons assigned to you as a relief teacher, each with its lesson pack.',
-    },
+    loadComponent: () => import('./relief').then((m) => m.Relief),
   },
 ];

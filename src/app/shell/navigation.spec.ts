@@ -10,16 +10,16 @@ describe('navigation by role', () => {
     expect(labels('teacher')).toEqual(['Home', 'Units', 'Kits', 'Classes']);
   });
 
-  it('gives a curriculum lead Home, Units and Review', () => {
-    expect(labels('lead')).toEqual(['Home', 'Units', 'Review']);
+  it('gives a curriculum lead Home, Units, Review and Outcomes', () => {
+    expect(labels('lead')).toEqual(['Home', 'Units', 'Review', 'Outcomes']);
   });
 
   it('gives a relief teacher Home and Relief', () => {
     expect(labels('relief')).toEqual(['Home', 'Relief']);
   });
 
-  it('gives an admin Home, Kits, Classes, School and Members', () => {
-    expect(labels('admin')).toEqual(['Home', 'Kits', 'Classes', 'School', 'Members']);
+  it('gives an admin Home, Kits, Classes, Outcomes, School and Members', () => {
+    expect(labels('admin')).toEqual(['Home', 'Kits', 'Classes', 'Outcomes', 'School', 'Members']);
   });
 
   it('adds the mail outbox for an admin only while it is available', () => {
@@ -27,6 +27,7 @@ describe('navigation by role', () => {
       'Home',
       'Kits',
       'Classes',
+      'Outcomes',
       'School',
       'Members',
       'Mail outbox (development)',

@@ -2,7 +2,7 @@ import type { Role } from '../../../shared/schemas/common';
 
 /** The areas of the app a role can be given. */
 export type Area =
-  'home' | 'units' | 'kits' | 'classes' | 'review' | 'relief' | 'school' | 'members' | 'devMail';
+  'home' | 'units' | 'kits' | 'classes' | 'outcomes' | 'review' | 'relief' | 'school' | 'members' | 'devMail';
 
 /**
  * Which roles see each area. This mirrors the server's rules for the navigation and the route
@@ -12,6 +12,7 @@ export const AREA_ROLES: Readonly<Record<Area, readonly Role[]>> = {
   home: ['teacher', 'lead', 'relief', 'admin'],
   units: ['teacher', 'lead'],
   kits: ['teacher', 'admin'],
+  outcomes: ['admin', 'lead'],
   classes: ['teacher', 'admin'],
   review: ['lead'],
   relief: ['relief'],
@@ -38,6 +39,7 @@ export const NAV_ITEMS: readonly NavItem[] = [
   { area: 'relief', label: 'Relief', path: '/relief', icon: 'assignment_ind' },
   { area: 'kits', label: 'Kits', path: '/kits', icon: 'inventory_2' },
   { area: 'classes', label: 'Classes', path: '/classes', icon: 'groups' },
+  { area: 'outcomes', label: 'Outcomes', path: '/outcomes', icon: 'checklist' },
   { area: 'school', label: 'School', path: '/school', icon: 'domain' },
   { area: 'members', label: 'Members', path: '/members', icon: 'manage_accounts' },
   { area: 'devMail', label: 'Mail outbox (development)', path: '/dev/mail', icon: 'mail' },

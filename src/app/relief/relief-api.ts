@@ -1,0 +1,34 @@
+import { HttpClient } from '@angular/common/http';
+import { Injectable, inject } from '@angular/core';
+import type { Observable } from 'rxjs';
+import { z } from 'zod';
+import { parseWith } from '../errors/parse';
+import { downloadWithProgress, type DownloadEvent } from '../lessons/lessons-api';
+
+export const reliefLessonSchema = z.object({
+  id: z.string(),
+  title: z.string(),
+  startsAt: z.string(),
+  endsAt: z.string(),
+  room: z.string(),
+  unitId: z.string(),
+  unitTitle: z.string(),
+  className: z.string(),
+  reliefNotes: z.string(),
+});
+export type ReliefLesson = z.infer<typeof reliefLessonSchema>;
+const listSchema = z.object({ lessons: z.array(reliefLessonSchema) });
+
+/** The lessons assigned to the signed-in relief teacher (`GET /api/relief/lessons`). */
+@Injectable({ providedIn: 'root' })
+export class ReliefApi {
+  private readonly http = inject(HttpClient);
+
+  lessons(): Observable<{ lessons: ReliefLesson[] }> {
+    return this.http.get('/api/relief/lessons').pipe(parseWith(listSchema));
+  }
+
+  pack(lessonId: string): Observable<DownloadEvent> {
+    return downloadWithProgress(this.http, `/api/lessons/${encodeURIComponent(lessonId)}/pack.pdf`);
+  }
+}

@@ -1,0 +1,46 @@
+import { HttpTestingController } from '@angular/common/http/testing';
+import { TestBed } from '@angular/core/testing';
+import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
+import { MatButtonHarness } from '@angular/material/button/testing';
+import { testProviders } from '../testing/test-providers';
+import { Relief } from './relief';
+
+const LESSON = {
+  id: 'lesson-4',
+  title: 'Sense the wall',
+  startsAt: '2026-08-04T11:10',
+  endsAt: '2026-08-04T12:00',
+  room: 'Room 12',
+  unitId: 'unit-1',
+  unitTitle: 'Rescue Rovers',
+  className: '4K',
+  reliefNotes: 'Groups sit by tub number.',
+};
+
+describe('Relief', () => {
+  it('lists the assigned lessons with their time, notes and a print button', async () => {
+    TestBed.configureTestingModule({ providers: testProviders() });
+    const fixture = TestBed.createComponent(Relief);
+    const http = TestBed.inject(HttpTestingController);
+    http.expectOne('/api/relief/lessons').flush({ lessons: [LESSON] });
+    await fixture.whenStable();
+    const text = (fixture.nativeElement as HTMLElement).textContent ?? '';
+    // 2026-08-04 is a Tuesday (ISO 8601 calendar).
+    expect(text).toContain('Tue 4 Aug 2026, 11:10 am–12:00 pm');
+    expect(text).toContain('Groups sit by tub number.');
+    const loader = TestbedHarnessEnvironment.loader(fixture);
+    const print = await loader.getHarness(MatButtonHarness.with({ text: /Print lesson pack/ }));
+    await print.click();
+    const req = http.expectOne('/api/lessons/lesson-4/pack.pdf');
+    expect(req.request.responseType).toBe('blob');
+    http.verify();
+  });
+
+  it('says so when nothing is assigned', async () => {
+    TestBed.configureTestingModule({ providers: testProviders() });
+    const fixture = TestBed.createComponent(Relief);
+    TestBed.inject(HttpTestingController).expectOne('/api/relief/lessons').flush({ lessons: [] });
+    await fixture.whenStable();
+    expect((fixture.nativeElement as HTMLElement).textContent).toContain('No lessons are assigned');
+  });
+});

@@ -1,0 +1,52 @@
+import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
+import { RouterLink } from '@angular/router';
+import { MatButtonModule } from '@angular/material/button';
+import { MatCardModule } from '@angular/material/card';
+import { MatIconModule } from '@angular/material/icon';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { clockTime, dayLabel } from '../lessons/clock';
+import { saveBlob } from '../lessons/lessons-api';
+import { ReliefApi, type ReliefLesson } from './relief-api';
+
+/** A relief teacher's page: each assigned lesson with its notes, a link and its lesson pack. */
+@Component({
+  selector: 'app-relief',
+  imports: [RouterLink, MatButtonModule, MatCardModule, MatIconModule, MatProgressBarModule],
+  templateUrl: './relief.html',
+  styleUrl: './relief.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class Relief {
+  private readonly api = inject(ReliefApi);
+
+  protected readonly lessons = signal<ReliefLesson[] | null>(null);
+  /** The lesson whose pack is being made, with its progress (null when the size is unknown). */
+  protected readonly printing = signal<{ id: string; fraction: number | null } | null>(null);
+
+  constructor() {
+    this.api.lessons().subscribe({
+      next: (body) => this.lessons.set(body.lessons),
+      error: () => this.lessons.set([]),
+    });
+  }
+
+  protected when(lesson: ReliefLesson): string {
+    return `${dayLabel(lesson.startsAt)}, ${clockTime(lesson.startsAt)}–${clockTime(lesson.endsAt)}`;
+  }
+
+  protected print(lesson: ReliefLesson): void {
+    if (this.printing()) return;
+    this.printing.set({ id: lesson.id, fraction: null });
+    this.api.pack(lesson.id).subscribe({
+      next: (event) => {
+        if (event.kind === 'progress') this.printing.set({ id: lesson.id, fraction: event.fraction });
+        else {
+          this.printing.set(null);
+          saveBlob(event.blob, event.name ?? `${lesson.className}-lesson-pack.pdf`);
+        }
+      },
+      // The error interceptor shows what went wrong.
+      error: () => this.printing.set(null),
+    });
+  }
+}
