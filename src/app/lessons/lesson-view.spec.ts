@@ -61,6 +61,16 @@ describe('LessonView', () => {
     );
   }
 
+  it('recomputes when the page comes back into view and shows what changed elsewhere', async () => {
+    // Someone recorded the missing motor of Tub 2 as found: group 2 is no longer short.
+    const changed: PrepPlan = { ...plan, shortfalls: plan.shortfalls.filter((s) => s.group !== 2) };
+    expect(text()).toMatch(/Group 2 is short/);
+    window.dispatchEvent(new Event('focus'));
+    backend.expectOne('/api/lessons/lesson-2/prep').flush(changed);
+    await fixture.whenStable();
+    expect(text()).not.toMatch(/Group 2 is short/);
+  });
+
   it('shows the lesson header in the school’s wall-clock time', () => {
     expect(text()).toContain('Drive train');
     expect(text()).toContain('Rescue Rovers');

@@ -1,6 +1,7 @@
 import {
   ChangeDetectionStrategy,
   Component,
+  DestroyRef,
   Injector,
   afterNextRender,
   computed,
@@ -88,6 +89,22 @@ export class LessonView {
 
   constructor() {
     effect(() => this.load(this.id()));
+    // The plan follows the lesson, its materials, the tubs and the school's settings, which other
+    // people change elsewhere: recompute when the page comes back into view and every 20 s while
+    // it is visible.
+    const refresh = () => {
+      if (document.visibilityState === 'visible' && !this.loading() && !this.saving()) {
+        this.refreshPrep(this.id(), true);
+      }
+    };
+    const timer = setInterval(refresh, 20_000);
+    document.addEventListener('visibilitychange', refresh);
+    window.addEventListener('focus', refresh);
+    inject(DestroyRef).onDestroy(() => {
+      clearInterval(timer);
+      document.removeEventListener('visibilitychange', refresh);
+      window.removeEventListener('focus', refresh);
+    });
   }
 
   protected partName(code: string): string {
@@ -205,8 +222,16 @@ export class LessonView {
     });
   }
 
-  private refreshPrep(id: string): void {
-    this.api.prep(id).subscribe((plan) => this.plan.set(plan));
+  private refreshPrep(id: string, quiet = false): void {
+    this.api.prep(id, quiet).subscribe({
+      next: (plan) => {
+        // Only a changed plan replaces the shown one, so ticks and scrolling stay put.
+        if (JSON.stringify(plan) !== JSON.stringify(this.plan())) this.plan.set(plan);
+      },
+      error: () => {
+        // A background refresh that fails keeps the plan shown; a foreground one was reported.
+      },
+    });
   }
 
   /** Part names are a nicety: without them the codes stand in (the error is already shown). */

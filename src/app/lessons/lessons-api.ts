@@ -74,9 +74,10 @@ export class LessonsApi {
     return this.http.get(`/api/lessons/${encodeURIComponent(id)}`).pipe(parseWith(lessonSchema));
   }
 
-  prep(id: string): Observable<PrepPlan> {
+  /** The prep plan; `quiet` for background refreshes, whose errors the caller ignores. */
+  prep(id: string, quiet = false): Observable<PrepPlan> {
     return this.http
-      .get(`/api/lessons/${encodeURIComponent(id)}/prep`)
+      .get(`/api/lessons/${encodeURIComponent(id)}/prep`, quiet ? { context: callerShowsErrors() } : {})
       .pipe(parseWith(prepPlanSchema));
   }
 
