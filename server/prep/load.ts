@@ -11,6 +11,7 @@ import {
 } from '../db/schema/index.js';
 import type { PrepInput } from '../../shared/prep/index.js';
 import type { UnitFacts } from '../auth/policy.js';
+import { mergePrep } from '../routes/school.js';
 
 /** `2026-07-28 11:10:00` (PostgreSQL) → `2026-07-28T11:10` (the engine's local form). */
 export function toLocal(value: string): string {
@@ -179,7 +180,9 @@ export async function loadPrepInput(tx: Tx, lessonId: string): Promise<PrepInput
         returnable: m.returnable,
       })),
     })),
-    settings: (settingsRow?.prep ?? {}) as PrepInput['settings'],
+    // Stored settings merged key by key with the defaults, so a value an older release stored (or
+    // one missing) never makes a lesson unplannable.
+    settings: mergePrep(settingsRow?.prep ?? {}),
     earlierSameDay: [...earlierById.values()].sort((a, b) => a.endsAt.localeCompare(b.endsAt)),
   };
 }

@@ -3,7 +3,7 @@ import assert from 'node:assert/strict';
 import { and, eq } from 'drizzle-orm';
 import { Browser, signedIn, testApp, type TestApp } from '../support/app.js';
 import {
-  activities, classes, kitTypes, lessonTubs, lessons, materials, parts, schools, tubMissing, tubs, units, users,
+  activities, classes, kitTypes, lessonTubs, lessons, materials, parts, schoolSettings, schools, tubMissing, tubs, units, users,
 } from '../../server/db/schema/index.js';
 
 let t: TestApp;
@@ -133,6 +133,22 @@ describe('GET /api/lessons/:id/prep', () => {
     const plan = (await b.get(`/api/lessons/${lessonId}/prep`)).body;
     assert.ok(!plan.shortfalls.some((s: { group: number }) => s.group === 2), 'group 2 has its second motor');
     await t.database.db.insert(tubMissing).values({ tubId: tub2!.id, partCode: 'RB-010', count: 1 });
+  });
+
+  it('follows the school settings as stored now, falling back to the default for a bad value', async () => {
+    const b = await signedIn(t.app, 'teacher@kestrel-ridge.example');
+    const [school] = await t.database.db.select().from(schools).where(eq(schools.name, 'Kestrel Ridge Primary School'));
+    const pinSpares = async () =>
+      (await b.get(`/api/lessons/${lessonId}/prep`)).body.sparesTray.lines.find(
+        (l: { partCode: string }) => l.partCode === 'RB-020',
+      )?.needed;
+    // R3: spares = ceil(40 × p / 100); 10 % → 4, 20 % → 8 (PREP-RULES.md worked example demand 40).
+    await t.database.db.insert(schoolSettings).values({ schoolId: school!.id, prep: { sparesPercent: 20 } })
+      .onConflictDoUpdate({ target: schoolSettings.schoolId, set: { prep: { sparesPercent: 20 } } });
+    assert.equal(await pinSpares(), 8);
+    await t.database.db.update(schoolSettings).set({ prep: { sparesPercent: 'ten' } }).where(eq(schoolSettings.schoolId, school!.id));
+    assert.equal(await pinSpares(), 4);
+    await t.database.db.update(schoolSettings).set({ prep: {} }).where(eq(schoolSettings.schoolId, school!.id));
   });
 
   it('answers 401 anonymous, 404 to another school and to roles that cannot read the lesson', async () => {
