@@ -1,54 +1,7 @@
 /**
- * Uploads of the planning routes (an outcomes CSV, activity attachments): one file in the field
- * `file`, held in memory under a size limit, its type decided from its bytes, never its name.
+ * Attachment file names: what is stored and sent back. Reading the upload and sniffing its type
+ * are the shared helpers of server/uploads.
  */
-import type { Request, RequestHandler } from 'express';
-import multer from 'multer';
-import { fileTypeFromBuffer } from 'file-type';
-import { HttpError } from '../http.js';
-
-function megabytes(bytes: number): string {
-  return `${Math.round((bytes / (1024 * 1024)) * 10) / 10} MB`;
-}
-
-/** Middleware: reads one file of at most `maxBytes` from the multipart field `file`. */
-export function oneFile(maxBytes: number): RequestHandler {
-  const upload = multer({
-    storage: multer.memoryStorage(),
-    // Browsers send the file name as UTF-8; busboy's default (latin1) would garble "Übung.pdf".
-    defParamCharset: 'utf8',
-    limits: { fileSize: maxBytes, files: 1, fields: 5, parts: 6 },
-  }).single('file');
-  return (req, res, next) => {
-    upload(req, res, (err: unknown) => {
-      if (!err) return next();
-      if (err instanceof multer.MulterError) {
-        if (err.code === 'LIMIT_FILE_SIZE') {
-          return next(
-            new HttpError(413, 'too-large', `The file is larger than ${megabytes(maxBytes)}.`),
-          );
-        }
-        return next(
-          new HttpError(400, 'invalid-upload', 'Send one file, in the form field named “file”.', [
-            { path: 'file', message: 'Send one file, in the form field named “file”.' },
-          ]),
-        );
-      }
-      // A multipart body cut short or malformed is the client's mistake, not a server failure.
-      return next(new HttpError(400, 'invalid-upload', 'The upload could not be read. Try again.'));
-    });
-  };
-}
-
-/** The uploaded file, or a 400 when none was sent. */
-export function uploadedFile(req: Request): Express.Multer.File {
-  if (!req.file) {
-    throw new HttpError(400, 'invalid-upload', 'Choose a file to upload.', [
-      { path: 'file', message: 'Choose a file to upload.' },
-    ]);
-  }
-  return req.file;
-}
 
 /** MIME types accepted for attachments and the file name extensions that go with each. */
 export const ATTACHMENT_EXTENSIONS: Record<string, readonly string[]> = {
@@ -57,21 +10,6 @@ export const ATTACHMENT_EXTENSIONS: Record<string, readonly string[]> = {
   'image/jpeg': ['jpg', 'jpeg'],
   'image/webp': ['webp'],
 };
-
-/** The type of the bytes when it is one of `allowed`; else 415 naming what is accepted. */
-export async function sniffType(
-  bytes: Buffer,
-  allowed: readonly string[],
-  accepted: string,
-): Promise<string> {
-  const found = await fileTypeFromBuffer(bytes);
-  if (!found || !allowed.includes(found.mime)) {
-    throw new HttpError(415, 'unsupported-type', `This file is not ${accepted}.`, [
-      { path: 'file', message: `Choose ${accepted}.` },
-    ]);
-  }
-  return found.mime;
-}
 
 /**
  * A file name safe to store and send back: no folders, no control or direction-changing

@@ -14,13 +14,8 @@ import { ATTACHMENT_MAX_BYTES, ATTACHMENT_TYPES } from '../../shared/schemas/les
 import { activityAccess, attachmentAccess } from '../planning/access.js';
 import { updateActivity } from '../planning/activity-write.js';
 import { activityDetail } from '../planning/lessons.js';
-import {
-  attachmentDisposition,
-  oneFile,
-  safeFilename,
-  sniffType,
-  uploadedFile,
-} from '../planning/upload.js';
+import { attachmentDisposition, safeFilename } from '../planning/upload.js';
+import { requireFile, singleFileUpload, sniffUpload } from '../uploads/index.js';
 import { deleteVersion, stale } from '../planning/versions.js';
 
 /** More than this many files on one activity is a mistake, not build instructions. */
@@ -96,16 +91,12 @@ export function activitiesRouter(ctx: AppContext): Router {
       await activityAccess(ctx.db, actor, parseParams(idParamsSchema, req).id, 'edit');
       next();
     },
-    oneFile(ATTACHMENT_MAX_BYTES),
+    singleFileUpload({ maxBytes: ATTACHMENT_MAX_BYTES }),
     async (req, res) => {
       const actor = requireActor(req);
       const { id } = parseParams(idParamsSchema, req);
-      const file = uploadedFile(req);
-      const contentType = await sniffType(
-        file.buffer,
-        ATTACHMENT_TYPES,
-        'a PDF, PNG, JPEG or WebP file',
-      );
+      const file = requireFile(req);
+      const contentType = await sniffUpload(file.buffer, ATTACHMENT_TYPES);
       const filename = safeFilename(file.originalname, contentType);
       const saved = await ctx.db.transaction(async (tx) => {
         await activityAccess(tx, actor, id, 'edit');

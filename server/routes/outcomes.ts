@@ -23,7 +23,7 @@ import {
 } from '../../shared/schemas/outcomes.js';
 import { isUniqueViolation, likePattern } from '../planning/format.js';
 import { readOutcomesCsv } from '../planning/outcomes-csv.js';
-import { oneFile, uploadedFile } from '../planning/upload.js';
+import { requireFile, singleFileUpload } from '../uploads/index.js';
 
 /** The school's frameworks (or one of them) with their outcome counts and year bands. */
 async function frameworksOf(tx: Tx, schoolId: string, onlyId?: string): Promise<Framework[]> {
@@ -115,11 +115,11 @@ export function outcomesRouter(ctx: AppContext): Router {
       await ownFramework(ctx.db, actor, parseParams(idParamsSchema, req).id);
       next();
     },
-    oneFile(OUTCOME_CSV_MAX_BYTES),
+    singleFileUpload({ maxBytes: OUTCOME_CSV_MAX_BYTES }),
     async (req, res) => {
       const actor = requireActor(req);
       const { id } = parseParams(idParamsSchema, req);
-      const file = uploadedFile(req);
+      const file = requireFile(req);
       await rejectBinary(file.buffer);
       const read = readOutcomesCsv(file.buffer);
       if (!read.ok) {
