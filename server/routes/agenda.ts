@@ -9,7 +9,14 @@ import { z } from 'zod';
 import type { AppContext } from '../context.js';
 import type { Tx } from '../db/client.js';
 import {
-  classes, lessonTubs, lessons, parts, schools, tubs, unitCoauthors, units,
+  classes,
+  lessonTubs,
+  lessons,
+  parts,
+  schools,
+  tubs,
+  unitCoauthors,
+  units,
 } from '../db/schema/index.js';
 import { parse } from '../http.js';
 import { requireActor } from '../auth/session.js';
@@ -58,7 +65,13 @@ async function readableLessons(tx: Tx, actor: Actor, from: string, to: string, m
     .from(lessons)
     .innerJoin(units, eq(units.id, lessons.unitId))
     .innerJoin(classes, eq(classes.id, lessons.classId))
-    .where(and(eq(lessons.schoolId, actor.schoolId), gte(lessons.startsAt, from), lt(lessons.startsAt, to)))
+    .where(
+      and(
+        eq(lessons.schoolId, actor.schoolId),
+        gte(lessons.startsAt, from),
+        lt(lessons.startsAt, to),
+      ),
+    )
     .orderBy(asc(lessons.startsAt));
   const unitIds = [...new Set(rows.map((r) => r.unitId))];
   const co = unitIds.length
@@ -121,17 +134,41 @@ export function agendaRouter(ctx: AppContext): Router {
       .flatMap(({ lesson, plan }) => (plan?.tasks ?? []).map((task) => ({ ...task, lesson })))
       .sort((a, b) => Date.parse(a.startBy) - Date.parse(b.startBy));
     type Attention = { lesson: ReturnType<typeof lessonSummary>; kind: string; message: string };
-    const attention = result.flatMap(({ lesson, plan }): Attention[] =>
+    const attention: Attention[] = result.flatMap(({ lesson, plan }): Attention[] =>
       plan
         ? [
-            ...plan.shortfalls.map((s) => ({ lesson, kind: 'shortfall', message: `${s.needed - s.allocated} × ${s.partCode} short${s.group ? ` for group ${s.group}` : ' in the class tray'}.` })),
+            ...plan.shortfalls.map((s) => ({
+              lesson,
+              kind: 'shortfall',
+              message: `${s.needed - s.allocated} × ${s.partCode} short${s.group ? ` for group ${s.group}` : ' in the class tray'}.`,
+            })),
             ...plan.warnings.map((w) => ({ lesson, kind: w.code, message: w.message })),
           ]
         : [{ lesson, kind: 'not-plannable', message: 'This lesson cannot be planned yet.' }],
     );
+    // Booking conflicts and recharge gaps that touch one of these lessons need action too.
+    const shown = new Map(result.map((r) => [r.lesson.id, r.lesson]));
+    const across = await findConflicts(ctx.db, actor, from, to);
+    for (const c of across.conflicts) {
+      const mine = c.lessons.find((l) => shown.has(l.id));
+      if (mine)
+        attention.push({
+          lesson: shown.get(mine.id)!,
+          kind: 'booking-conflict',
+          message: c.message,
+        });
+    }
+    for (const g of across.rechargeGaps) {
+      const mine = shown.get(g.after.id) ?? shown.get(g.before.id);
+      if (mine) attention.push({ lesson: mine, kind: 'recharge-gap', message: g.message });
+    }
     res.json({
       week: from,
-      lessons: result.map((r) => ({ ...r.lesson, groups: r.plan?.totals.groups ?? null, shortfalls: r.plan?.shortfalls.length ?? 0 })),
+      lessons: result.map((r) => ({
+        ...r.lesson,
+        groups: r.plan?.totals.groups ?? null,
+        shortfalls: r.plan?.shortfalls.length ?? 0,
+      })),
       tasks,
       attention,
     });
@@ -145,81 +182,91 @@ const rangeQuery = z.object({
   to: z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'Give a date like 2026-09-25.'),
 });
 
+/** Booking conflicts and recharge gaps among the actor's readable lessons in [from, to). */
+async function findConflicts(tx: Tx, actor: Actor, from: string, to: string) {
+  const [school] = await tx.select().from(schools).where(eq(schools.id, actor.schoolId));
+  const zone = school!.timezone;
+  const rows = await readableLessons(tx, actor, from, to, false);
+  const ids = rows.map((r) => r.id);
+  const bookings = ids.length
+    ? await tx
+        .select({ lessonId: lessonTubs.lessonId, tubId: tubs.id, label: tubs.label })
+        .from(lessonTubs)
+        .innerJoin(tubs, eq(tubs.id, lessonTubs.tubId))
+        .where(inArray(lessonTubs.lessonId, ids))
+    : [];
+  const chargeRows = rows.length
+    ? await tx
+        .select({ kitTypeId: parts.kitTypeId, minutes: parts.chargeMinutes, name: parts.name })
+        .from(parts)
+        .where(inArray(parts.kitTypeId, [...new Set(rows.map((r) => r.kitTypeId))]))
+    : [];
+  const instant = (local: string) => DateTime.fromISO(toLocal(local), { zone }).toMillis();
+  const byTub = new Map<string, { label: string; lessons: LessonRow[] }>();
+  const byId = new Map(rows.map((r) => [r.id, r]));
+  for (const b of bookings) {
+    const entry = byTub.get(b.tubId) ?? { label: b.label, lessons: [] };
+    entry.lessons.push(byId.get(b.lessonId)!);
+    byTub.set(b.tubId, entry);
+  }
+  const conflicts = new Map<string, { a: LessonRow; b: LessonRow; tubs: string[] }>();
+  const gaps = [];
+  for (const { label, lessons: list } of byTub.values()) {
+    list.sort((x, y) => instant(x.startsAt) - instant(y.startsAt));
+    for (let i = 0; i < list.length; i++) {
+      for (let j = i + 1; j < list.length; j++) {
+        const a = list[i]!;
+        const b = list[j]!;
+        const overlap = intervalsOverlap(
+          { startsAt: instant(a.startsAt), endsAt: instant(a.endsAt) },
+          { startsAt: instant(b.startsAt), endsAt: instant(b.endsAt) },
+        );
+        if (!overlap) break;
+        const key = `${a.id}|${b.id}`;
+        const c = conflicts.get(key) ?? { a, b, tubs: [] };
+        c.tubs.push(label);
+        conflicts.set(key, c);
+      }
+      const next = list[i + 1];
+      if (next) {
+        const a = list[i]!;
+        const between = (instant(next.startsAt) - instant(a.endsAt)) / 60_000;
+        const full = Math.max(
+          0,
+          ...chargeRows
+            .filter((p) => p.kitTypeId === a.kitTypeId && p.minutes)
+            .map((p) => p.minutes!),
+        );
+        if (full > 0 && between >= 0 && between < full) {
+          gaps.push({
+            tub: label,
+            before: lessonSummary(a),
+            after: lessonSummary(next),
+            minutesBetween: between,
+            fullChargeMinutes: full,
+            message: `${label} has ${between} minutes between "${a.title}" and "${next.title}"; a full charge takes ${full}.`,
+          });
+        }
+      }
+    }
+  }
+  return {
+    conflicts: [...conflicts.values()].map((c) => ({
+      lessons: [lessonSummary(c.a), lessonSummary(c.b)],
+      tubs: c.tubs.sort(),
+      message: `"${c.a.title}" and "${c.b.title}" overlap and both book ${c.tubs.sort().join(', ')}.`,
+    })),
+    rechargeGaps: gaps,
+  };
+}
+
 /** GET /api/conflicts?from=&to=: booking conflicts and recharge gaps of the school. */
 export function conflictsRouter(ctx: AppContext): Router {
   const router = Router();
   router.get('/', async (req, res) => {
     const actor = requireActor(req);
     const q = parse(rangeQuery, req.query);
-    const [school] = await ctx.db.select().from(schools).where(eq(schools.id, actor.schoolId));
-    const zone = school!.timezone;
-    const rows = await readableLessons(ctx.db, actor, q.from, q.to, false);
-    const ids = rows.map((r) => r.id);
-    const bookings = ids.length
-      ? await ctx.db
-          .select({ lessonId: lessonTubs.lessonId, tubId: tubs.id, label: tubs.label })
-          .from(lessonTubs)
-          .innerJoin(tubs, eq(tubs.id, lessonTubs.tubId))
-          .where(inArray(lessonTubs.lessonId, ids))
-      : [];
-    const chargeRows = rows.length
-      ? await ctx.db
-          .select({ kitTypeId: parts.kitTypeId, minutes: parts.chargeMinutes, name: parts.name })
-          .from(parts)
-          .where(inArray(parts.kitTypeId, [...new Set(rows.map((r) => r.kitTypeId))]))
-      : [];
-    const instant = (local: string) => DateTime.fromISO(toLocal(local), { zone }).toMillis();
-    const byTub = new Map<string, { label: string; lessons: LessonRow[] }>();
-    const byId = new Map(rows.map((r) => [r.id, r]));
-    for (const b of bookings) {
-      const entry = byTub.get(b.tubId) ?? { label: b.label, lessons: [] };
-      entry.lessons.push(byId.get(b.lessonId)!);
-      byTub.set(b.tubId, entry);
-    }
-    const conflicts = new Map<string, { a: LessonRow; b: LessonRow; tubs: string[] }>();
-    const gaps = [];
-    for (const { label, lessons: list } of byTub.values()) {
-      list.sort((x, y) => instant(x.startsAt) - instant(y.startsAt));
-      for (let i = 0; i < list.length; i++) {
-        for (let j = i + 1; j < list.length; j++) {
-          const a = list[i]!;
-          const b = list[j]!;
-          const overlap = intervalsOverlap(
-            { startsAt: instant(a.startsAt), endsAt: instant(a.endsAt) },
-            { startsAt: instant(b.startsAt), endsAt: instant(b.endsAt) },
-          );
-          if (!overlap) break;
-          const key = `${a.id}|${b.id}`;
-          const c = conflicts.get(key) ?? { a, b, tubs: [] };
-          c.tubs.push(label);
-          conflicts.set(key, c);
-        }
-        const next = list[i + 1];
-        if (next) {
-          const a = list[i]!;
-          const between = (instant(next.startsAt) - instant(a.endsAt)) / 60_000;
-          const full = Math.max(0, ...chargeRows.filter((p) => p.kitTypeId === a.kitTypeId && p.minutes).map((p) => p.minutes!));
-          if (full > 0 && between >= 0 && between < full) {
-            gaps.push({
-              tub: label,
-              before: lessonSummary(a),
-              after: lessonSummary(next),
-              minutesBetween: between,
-              fullChargeMinutes: full,
-              message: `${label} has ${between} minutes between "${a.title}" and "${next.title}"; a full charge takes ${full}.`,
-            });
-          }
-        }
-      }
-    }
-    res.json({
-      conflicts: [...conflicts.values()].map((c) => ({
-        lessons: [lessonSummary(c.a), lessonSummary(c.b)],
-        tubs: c.tubs.sort(),
-        message: `"${c.a.title}" and "${c.b.title}" overlap and both book ${c.tubs.sort().join(', ')}.`,
-      })),
-      rechargeGaps: gaps,
-    });
+    res.json(await findConflicts(ctx.db, actor, q.from, q.to));
   });
   return router;
 }

@@ -194,6 +194,11 @@ describe('across lessons', () => {
     assert.equal(res.body.conflicts.length, 1);
     assert.deepEqual(res.body.conflicts[0].tubs, ['Tub 1']);
     assert.match(res.body.conflicts[0].message, /Overlapping/);
+    // The teacher's week lists the conflict among the things that need action.
+    const week = await b.get('/api/agenda?week=2026-07-27&mine=true');
+    const flagged = week.body.attention.filter((a: { kind: string }) => a.kind === 'booking-conflict');
+    assert.equal(flagged.length, 1);
+    assert.match(flagged[0].message, /Tub 1/);
     await db.delete(lessons).where(eq(lessons.id, second!.id));
   });
 
