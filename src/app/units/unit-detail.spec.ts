@@ -1,8 +1,13 @@
 import { HttpTestingController } from '@angular/common/http/testing';
-import { TestBed } from '@angular/core/testing';
+import type { HarnessLoader } from '@angular/cdk/testing';
+import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
+import { TestBed, type ComponentFixture } from '@angular/core/testing';
+import { MatButtonHarness } from '@angular/material/button/testing';
+import { MatProgressBarHarness } from '@angular/material/progress-bar/testing';
+import { MatSnackBarHarness } from '@angular/material/snack-bar/testing';
 import { provideMarkdown } from 'ngx-markdown';
 import type { Unit } from '../../../shared/schemas/units';
-import { testProviders } from '../testing/test-providers';
+import { errorBody, testProviders } from '../testing/test-providers';
 import { UnitDetail } from './unit-detail';
 
 /** An invented unit of the invented demo school. */
@@ -23,11 +28,34 @@ const UNIT: Unit = {
   createdAt: '2026-07-01T09:00:00+09:30',
   coauthors: [],
   outcomes: [
-    { id: 'o1', code: 'DT4-02', description: 'Follow and describe steps.', frameworkId: 'f', strand: 'Processes', yearBand: '3–4' },
+    {
+      id: 'o1',
+      code: 'DT4-02',
+      description: 'Follow and describe steps.',
+      frameworkId: 'f',
+      strand: 'Processes',
+      yearBand: '3–4',
+    },
   ],
   lessons: [
-    { id: 'l-1', title: 'Meet the rover', date: '2026-07-21', startsAt: '2026-07-21T11:10', endsAt: '2026-07-21T12:00', classId: 'c', className: '4K' },
-    { id: 'l-2', title: 'Drive train', date: '2026-07-28', startsAt: '2026-07-28T11:10', endsAt: '2026-07-28T12:00', classId: 'c', className: '4K' },
+    {
+      id: 'l-1',
+      title: 'Meet the rover',
+      date: '2026-07-21',
+      startsAt: '2026-07-21T11:10',
+      endsAt: '2026-07-21T12:00',
+      classId: 'c',
+      className: '4K',
+    },
+    {
+      id: 'l-2',
+      title: 'Drive train',
+      date: '2026-07-28',
+      startsAt: '2026-07-28T11:10',
+      endsAt: '2026-07-28T12:00',
+      classId: 'c',
+      className: '4K',
+    },
   ],
   isOwner: true,
 };
@@ -59,5 +87,88 @@ describe('UnitDetail', () => {
     ]);
     expect(el.textContent).toContain('Tue 28 Jul 2026, 11:10 am–12:00 pm');
     backend.verify();
+  });
+
+  describe('printables', () => {
+    let fixture: ComponentFixture<UnitDetail>;
+    let loader: HarnessLoader;
+    let backend: HttpTestingController;
+    let saved: { name: string; blob: Blob | null }[];
+
+    beforeEach(async () => {
+      TestBed.configureTestingModule({ providers: [testProviders(), provideMarkdown()] });
+      backend = TestBed.inject(HttpTestingController);
+      fixture = TestBed.createComponent(UnitDetail);
+      loader = TestbedHarnessEnvironment.loader(fixture);
+      fixture.componentRef.setInput('id', 'u-1');
+      fixture.detectChanges();
+      backend.expectOne('/api/units/u-1').flush(UNIT);
+      await fixture.whenStable();
+      // saveBlob hands the file to the browser through a link's `download` name: watch that link.
+      saved = [];
+      let lastBlob: Blob | null = null;
+      spyOn(URL, 'createObjectURL').and.callFake((blob: Blob | MediaSource) => {
+        lastBlob = blob as Blob;
+        return 'blob:unit-file';
+      });
+      spyOn(URL, 'revokeObjectURL');
+      spyOn(HTMLAnchorElement.prototype, 'click').and.callFake(function (this: HTMLAnchorElement) {
+        saved.push({ name: this.download, blob: lastBlob });
+      });
+    });
+
+    afterEach(() => backend.verify());
+
+    it('saves the unit pack under the name the server gave, with a progress bar meanwhile', async () => {
+      await (await loader.getHarness(MatButtonHarness.with({ text: /Print unit pack/ }))).click();
+      expect(await loader.getAllHarnesses(MatProgressBarHarness)).toHaveSize(1);
+      const pdf = new Blob(['%PDF-1.7'], { type: 'application/pdf' });
+      backend.expectOne('/api/units/u-1/pack.pdf').flush(pdf, {
+        headers: { 'Content-Disposition': 'attachment; filename="4K-rescue-rovers-unit-pack.pdf"' },
+      });
+      await fixture.whenStable();
+      expect(saved.map((s) => s.name)).toEqual(['4K-rescue-rovers-unit-pack.pdf']);
+      expect(await saved[0]!.blob!.text()).toBe('%PDF-1.7');
+      expect(await loader.getAllHarnesses(MatProgressBarHarness)).toHaveSize(0);
+    });
+
+    it('saves the prep calendar under the server’s UTF-8 name (RFC 8187 filename*)', async () => {
+      await (
+        await loader.getHarness(MatButtonHarness.with({ text: /Add prep to calendar/ }))
+      ).click();
+      backend.expectOne('/api/units/u-1/prep.ics').flush(new Blob(['BEGIN:VCALENDAR']), {
+        headers: {
+          'Content-Disposition':
+            'attachment; filename="prep.ics"; filename*=UTF-8\'\'4K-rescue-rovers-prep%E2%80%931.ics',
+        },
+      });
+      await fixture.whenStable();
+      expect(saved.map((s) => s.name)).toEqual(['4K-rescue-rovers-prep–1.ics']);
+    });
+
+    it('shows a failed print in the snack-bar and stops the progress bar', async () => {
+      await (await loader.getHarness(MatButtonHarness.with({ text: /Print unit pack/ }))).click();
+      backend
+        .expectOne('/api/units/u-1/pack.pdf')
+        .flush(new Blob([JSON.stringify(errorBody('not-found', 'Not there.'))]), {
+          status: 404,
+          statusText: 'Not Found',
+        });
+      await fixture.whenStable();
+      expect(await loader.getAllHarnesses(MatProgressBarHarness)).toHaveSize(0);
+      const root = TestbedHarnessEnvironment.documentRootLoader(fixture);
+      expect(await (await root.getHarness(MatSnackBarHarness)).getMessage()).toBe(
+        "That page or record doesn't exist (any more).",
+      );
+      expect(saved).toEqual([]);
+    });
+
+    it('offers authors Edit and Add lesson for this unit', () => {
+      const el = fixture.nativeElement as HTMLElement;
+      const hrefs = Array.from(el.querySelectorAll('.actions a')).map((a) =>
+        a.getAttribute('href'),
+      );
+      expect(hrefs).toEqual(['/units/u-1/edit', '/lessons/new?unit=u-1']);
+    });
   });
 });

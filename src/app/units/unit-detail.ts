@@ -1,11 +1,14 @@
 import { ChangeDetectionStrategy, Component, effect, inject, input, signal } from '@angular/core';
+import { MatButtonModule } from '@angular/material/button';
+import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { RouterLink } from '@angular/router';
 import { MarkdownComponent } from 'ngx-markdown';
 import { UNIT_STATUS_LABELS, type Unit } from '../../../shared/schemas/units';
 import { clockTime, dayLabel } from '../lessons/clock';
+import { saveBlob } from '../lessons/lessons-api';
 import { yearLabel } from './labels';
-import { UnitsApi } from './units-api';
+import { UnitsApi, type UnitPrintable } from './units-api';
 
 /**
  * `/units/:id`: a unit's overview (Markdown, sanitised by ngx-markdown's default Angular
@@ -13,7 +16,7 @@ import { UnitsApi } from './units-api';
  */
 @Component({
   selector: 'app-unit-detail',
-  imports: [RouterLink, MarkdownComponent, MatProgressBarModule],
+  imports: [RouterLink, MarkdownComponent, MatButtonModule, MatIconModule, MatProgressBarModule],
   template: `
     <section class="page">
       @if (!unit() && !error()) {
@@ -36,6 +39,49 @@ import { UnitsApi } from './units-api';
           · {{ statusLabels[unit.status] }} · by {{ unit.owner.name || unit.owner.email }}
         </p>
 
+        <div class="actions">
+          @if (unit.canEdit) {
+            <a matButton="filled" [routerLink]="['/units', unit.id, 'edit']">
+              <mat-icon aria-hidden="true">edit</mat-icon>
+              Edit unit
+            </a>
+            <a matButton="outlined" routerLink="/lessons/new" [queryParams]="{ unit: unit.id }">
+              <mat-icon aria-hidden="true">add</mat-icon>
+              Add lesson
+            </a>
+          }
+          <button
+            matButton="outlined"
+            type="button"
+            [disabled]="!!download()"
+            (click)="print('pack.pdf')"
+          >
+            <mat-icon aria-hidden="true">print</mat-icon>
+            Print unit pack
+          </button>
+          <button
+            matButton="outlined"
+            type="button"
+            [disabled]="!!download()"
+            (click)="print('prep.ics')"
+          >
+            <mat-icon aria-hidden="true">event</mat-icon>
+            Add prep to calendar
+          </button>
+        </div>
+        @if (download(); as d) {
+          <mat-progress-bar
+            [mode]="d.fraction === null ? 'indeterminate' : 'determinate'"
+            [value]="(d.fraction ?? 0) * 100"
+            [attr.aria-label]="
+              d.file === 'pack.pdf' ? 'Making the unit pack' : 'Making the prep calendar'
+            "
+          />
+          <p class="muted" aria-live="polite">
+            {{ d.file === 'pack.pdf' ? 'Making the unit pack…' : 'Making the prep calendar…' }}
+          </p>
+        }
+
         <h2>Overview</h2>
         @if (unit.overview.trim()) {
           <markdown class="overview" [data]="unit.overview" />
@@ -47,7 +93,9 @@ import { UnitsApi } from './units-api';
         @if (unit.outcomes.length) {
           <ul>
             @for (o of unit.outcomes; track o.id) {
-              <li><strong>{{ o.code }}</strong> {{ o.description }}</li>
+              <li>
+                <strong>{{ o.code }}</strong> {{ o.description }}
+              </li>
             }
           </ul>
         } @else {
@@ -74,6 +122,12 @@ import { UnitsApi } from './units-api';
     </section>
   `,
   styles: `
+    .actions {
+      display: flex;
+      flex-wrap: wrap;
+      gap: 0.5rem 0.75rem;
+      margin: 0.5rem 0 1rem;
+    }
     .lessons li {
       margin-bottom: 0.25rem;
     }
@@ -92,6 +146,10 @@ export class UnitDetail {
   protected readonly statusLabels = UNIT_STATUS_LABELS;
   protected readonly unit = signal<Unit | null>(null);
   protected readonly error = signal<string | null>(null);
+  /** The printable being made, and how far its download is (null: size unknown). */
+  protected readonly download = signal<{ file: UnitPrintable; fraction: number | null } | null>(
+    null,
+  );
 
   constructor() {
     effect(() => {
@@ -102,6 +160,24 @@ export class UnitDetail {
         next: (unit) => this.unit.set(unit),
         error: (e: unknown) => this.error.set(e instanceof Error ? e.message : 'Not loaded.'),
       });
+    });
+  }
+
+  /** Downloads a printable and saves it under the name the server gave it. */
+  protected print(file: UnitPrintable): void {
+    const unit = this.unit();
+    if (!unit) return;
+    this.download.set({ file, fraction: null });
+    this.api.download(unit.id, file).subscribe({
+      next: (event) => {
+        if (event.kind === 'progress') this.download.set({ file, fraction: event.fraction });
+        else {
+          this.download.set(null);
+          saveBlob(event.blob, event.name ?? fallbackName(unit, file));
+        }
+      },
+      // The interceptor has shown the error in the snack-bar; only the progress bar stops here.
+      error: () => this.download.set(null),
     });
   }
 
@@ -116,4 +192,13 @@ export class UnitDetail {
   protected clock(value: string): string {
     return clockTime(value);
   }
+}
+
+/** A name for a file whose response named none (the server normally does). */
+function fallbackName(unit: Unit, file: UnitPrintable): string {
+  const stem = unit.title
+    .toLowerCase()
+    .replace(/[^a-z0-9]+/g, '-')
+    .replace(/^-|-$/g, '');
+  return `${stem || 'unit'}-${file === 'pack.pdf' ? 'unit-pack.pdf' : 'prep.ics'}`;
 }

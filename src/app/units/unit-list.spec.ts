@@ -31,7 +31,14 @@ function summary(overrides: Partial<UnitSummary>): UnitSummary {
 
 const MINE = [
   summary({}),
-  summary({ id: 'u-2', title: 'Smart Gates', yearLevel: 0, term: null, status: 'endorsed', lessonCount: 4 }),
+  summary({
+    id: 'u-2',
+    title: 'Smart Gates',
+    yearLevel: 0,
+    term: null,
+    status: 'endorsed',
+    lessonCount: 4,
+  }),
 ];
 
 describe('UnitList', () => {

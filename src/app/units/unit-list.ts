@@ -59,7 +59,16 @@ export class UnitList {
   protected statusLabel(unit: UnitSummary): string {
     return UNIT_STATUS_LABELS[unit.status];
   }
-  protected readonly columns = ['title', 'area', 'yearLevel', 'term', 'status', 'owner', 'lessons', 'updated'];
+  protected readonly columns = [
+    'title',
+    'area',
+    'yearLevel',
+    'term',
+    'status',
+    'owner',
+    'lessons',
+    'updated',
+  ];
 
   protected readonly scope = signal<UnitFilters['scope']>('mine');
   protected readonly yearLevel = signal<number | null>(null);

@@ -2,13 +2,24 @@ import { HttpClient, HttpParams } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
 import { map, type Observable } from 'rxjs';
 import {
+  frameworkListSchema,
+  outcomeListSchema,
+  type Framework,
+  type Outcome,
+} from '../../../shared/schemas/outcomes';
+import { classListSchema } from '../../../shared/schemas/classes';
+import {
   unitListSchema,
   unitSchema,
   type Unit,
+  type LessonOrder,
+  type PersonRef,
   type UnitCreate,
   type UnitStatus,
   type UnitSummary,
+  type UnitUpdate,
 } from '../../../shared/schemas/units';
+import { downloadWithProgress, type DownloadEvent } from '../lessons/lessons-api';
 import { callerShowsErrors } from '../errors/error-context';
 import { parseWith } from '../errors/parse';
 
@@ -20,6 +31,9 @@ export interface UnitFilters {
   status: UnitStatus | null;
   q: string;
 }
+
+/** The printables of a unit (`/api/units/:id/pack.pdf`, `/prep.ics`). */
+export type UnitPrintable = 'pack.pdf' | 'prep.ics';
 
 /** Units (`/api/units`). */
 @Injectable({ providedIn: 'root' })
@@ -47,5 +61,68 @@ export class UnitsApi {
     return this.http
       .post('/api/units', unit, { context: callerShowsErrors() })
       .pipe(parseWith(unitSchema));
+  }
+
+  /** The editor shows a 400 under its fields and a 409 (stale version) with Reload / Re-apply. */
+  update(id: string, change: UnitUpdate): Observable<Unit> {
+    return this.http
+      .patch(`/api/units/${encodeURIComponent(id)}`, change, { context: callerShowsErrors() })
+      .pipe(parseWith(unitSchema));
+  }
+
+  /** The editor shows a 409 itself (the unit or its lessons changed meanwhile). */
+  reorder(id: string, order: LessonOrder): Observable<Unit> {
+    return this.http
+      .put(`/api/units/${encodeURIComponent(id)}/lesson-order`, order, {
+        context: callerShowsErrors(),
+      })
+      .pipe(parseWith(unitSchema));
+  }
+
+  /** Deletes the unit and its lessons; `version` makes a stale delete a 409 (shown by the caller). */
+  remove(id: string, version: number): Observable<unknown> {
+    return this.http.delete(`/api/units/${encodeURIComponent(id)}`, {
+      params: new HttpParams().set('version', version),
+      context: callerShowsErrors(),
+    });
+  }
+
+  /** Downloads a printable with progress; its errors go to the interceptor's snack-bar. */
+  download(id: string, file: UnitPrintable): Observable<DownloadEvent> {
+    return downloadWithProgress(this.http, `/api/units/${encodeURIComponent(id)}/${file}`);
+  }
+
+  frameworks(): Observable<Framework[]> {
+    return this.http.get('/api/outcomes/frameworks').pipe(
+      parseWith(frameworkListSchema),
+      map((body) => body.frameworks),
+    );
+  }
+
+  /** Outcomes of a framework matching `q` (the server caps the answer and says so). */
+  outcomes(
+    frameworkId: string,
+    q: string,
+  ): Observable<{ outcomes: Outcome[]; truncated: boolean }> {
+    let params = new HttpParams().set('frameworkId', frameworkId);
+    if (q.trim()) params = params.set('q', q.trim());
+    return this.http.get('/api/outcomes', { params }).pipe(parseWith(outcomeListSchema));
+  }
+
+  /**
+   * The school's teachers a teacher can see: there is no teacher list for teachers, so these are
+   * the teachers of the school's classes (`GET /api/classes`), each once, sorted by name.
+   */
+  classTeachers(): Observable<PersonRef[]> {
+    return this.http.get('/api/classes').pipe(
+      parseWith(classListSchema),
+      map((body) => {
+        const byId = new Map<string, PersonRef>();
+        for (const c of body.classes) for (const t of c.teachers) byId.set(t.id, t);
+        return [...byId.values()].sort((a, b) =>
+          (a.name || a.email).localeCompare(b.name || b.email),
+        );
+      }),
+    );
   }
 }

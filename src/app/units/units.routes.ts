@@ -1,6 +1,7 @@
 import type { Routes } from '@angular/router';
+import { unsavedChangesGuard } from './unsaved-changes';
 
-/** The Units area: the tables, a new unit, and a unit's page. */
+/** The Units area: the tables, a new unit, a unit's page and its editor. */
 export const UNITS_ROUTES: Routes = [
   {
     path: '',
@@ -11,6 +12,12 @@ export const UNITS_ROUTES: Routes = [
     path: 'new',
     title: 'New unit',
     loadComponent: () => import('./unit-new').then((m) => m.UnitNew),
+  },
+  {
+    path: ':id/edit',
+    title: 'Edit unit',
+    canDeactivate: [unsavedChangesGuard],
+    loadComponent: () => import('./unit-editor').then((m) => m.UnitEditor),
   },
   {
     path: ':id',

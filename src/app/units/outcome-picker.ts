@@ -1,0 +1,162 @@
+import {
+  ChangeDetectionStrategy,
+  Component,
+  DestroyRef,
+  inject,
+  input,
+  signal,
+} from '@angular/core';
+import { takeUntilDestroyed, toObservable } from '@angular/core/rxjs-interop';
+import { ReactiveFormsModule, type FormControl } from '@angular/forms';
+import { MatAutocompleteModule } from '@angular/material/autocomplete';
+import { MatChipsModule } from '@angular/material/chips';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatSelectModule } from '@angular/material/select';
+import { catchError, combineLatest, debounceTime, of, switchMap } from 'rxjs';
+import type { Framework, Outcome } from '../../../shared/schemas/outcomes';
+import type { UnitOutcome } from '../../../shared/schemas/units';
+import { FieldErrorPipe } from '../forms/field-error';
+import { UnitsApi } from './units-api';
+
+/**
+ * Outcomes picked from a framework: choose the framework, search its outcomes by code or words,
+ * pick from the suggestions; the chosen ones show as chips that can be removed.
+ */
+@Component({
+  selector: 'app-outcome-picker',
+  imports: [
+    ReactiveFormsModule,
+    MatAutocompleteModule,
+    MatChipsModule,
+    MatFormFieldModule,
+    MatIconModule,
+    MatSelectModule,
+    FieldErrorPipe,
+  ],
+  template: `
+    <div class="picker">
+      <mat-form-field class="framework">
+        <mat-label>Framework</mat-label>
+        <mat-select [value]="frameworkId()" (selectionChange)="frameworkId.set($event.value)">
+          @for (f of frameworks(); track f.id) {
+            <mat-option [value]="f.id">{{ f.name }}</mat-option>
+          }
+        </mat-select>
+        @if (!frameworks().length) {
+          <mat-hint>No outcomes framework is imported yet.</mat-hint>
+        }
+      </mat-form-field>
+      <mat-form-field class="outcomes">
+        <mat-label>Outcomes</mat-label>
+        <mat-chip-grid #grid [formControl]="control()" aria-label="Chosen outcomes">
+          @for (o of control().value; track o.id) {
+            <mat-chip-row [value]="o" (removed)="remove(o)">
+              {{ o.code }}
+              <button matChipRemove type="button" [attr.aria-label]="'Remove ' + o.code">
+                <mat-icon aria-hidden="true">cancel</mat-icon>
+              </button>
+            </mat-chip-row>
+          }
+        </mat-chip-grid>
+        <input
+          #search
+          placeholder="Search by code or words"
+          [matChipInputFor]="grid"
+          [matAutocomplete]="auto"
+          [disabled]="!frameworkId()"
+          (input)="q.set(search.value)"
+        />
+        <mat-autocomplete
+          #auto
+          (optionSelected)="add($event.option.value); search.value = ''; q.set('')"
+        >
+          @for (o of options(); track o.id) {
+            <mat-option [value]="o" [disabled]="isChosen(o)">
+              <strong>{{ o.code }}</strong> {{ o.description }}
+            </mat-option>
+          }
+          @if (truncated()) {
+            <mat-option disabled>More outcomes match: type more words.</mat-option>
+          }
+        </mat-autocomplete>
+        <mat-hint>Pick as many as the unit addresses.</mat-hint>
+        <mat-error>{{ control().errors | fieldError }}</mat-error>
+      </mat-form-field>
+    </div>
+  `,
+  styles: `
+    .picker {
+      display: flex;
+      flex-wrap: wrap;
+      gap: 0 1rem;
+    }
+    .framework {
+      width: min(100%, 16rem);
+    }
+    .outcomes {
+      flex: 1 1 20rem;
+    }
+  `,
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class OutcomePicker {
+  private readonly api = inject(UnitsApi);
+
+  /** The form's control holding the chosen outcomes. */
+  readonly control = input.required<FormControl<UnitOutcome[]>>();
+
+  protected readonly frameworks = signal<Framework[]>([]);
+  protected readonly frameworkId = signal<string | null>(null);
+  protected readonly q = signal('');
+  protected readonly options = signal<Outcome[]>([]);
+  protected readonly truncated = signal(false);
+
+  constructor() {
+    const destroyRef = inject(DestroyRef);
+    // Errors are the interceptor's to show; the picker then offers nothing.
+    this.api.frameworks().subscribe({
+      next: (list) => {
+        this.frameworks.set(list);
+        const used = this.control().value[0]?.frameworkId;
+        this.frameworkId.set(list.find((f) => f.id === used)?.id ?? list[0]?.id ?? null);
+      },
+      error: () => this.frameworks.set([]),
+    });
+    // switchMap: only the answer to the latest words counts.
+    combineLatest([toObservable(this.frameworkId), toObservable(this.q)])
+      .pipe(
+        debounceTime(200),
+        switchMap(([frameworkId, q]) =>
+          frameworkId
+            ? this.api.outcomes(frameworkId, q).pipe(catchError(() => of(null)))
+            : of({ outcomes: [], truncated: false }),
+        ),
+        takeUntilDestroyed(destroyRef),
+      )
+      .subscribe((answer) => {
+        this.options.set(answer?.outcomes ?? []);
+        this.truncated.set(answer?.truncated ?? false);
+      });
+  }
+
+  protected isChosen(o: Outcome): boolean {
+    return this.control().value.some((c) => c.id === o.id);
+  }
+
+  protected add(o: Outcome): void {
+    if (this.isChosen(o)) return;
+    this.set([...this.control().value, o]);
+  }
+
+  protected remove(o: UnitOutcome): void {
+    this.set(this.control().value.filter((c) => c.id !== o.id));
+  }
+
+  private set(value: UnitOutcome[]): void {
+    const control = this.control();
+    control.setValue(value);
+    control.markAsDirty();
+    control.markAsTouched();
+  }
+}
