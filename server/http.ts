@@ -51,7 +51,9 @@ export const jsonNotFound: RequestHandler = (_req, res) => {
 };
 
 /** The last middleware: one error shape, never a stack trace. */
-export const errorHandler: ErrorRequestHandler = (err, _req, res, _next) => {
+export const errorHandler: ErrorRequestHandler = (err, _req, res, next) => {
+  // Once an answer has started (a client that went away mid-response), only Express can end it.
+  if (res.headersSent) return next(err);
   if (err instanceof HttpError) {
     for (const [k, v] of Object.entries(err.extra?.headers ?? {})) res.setHeader(k, v);
     res.status(err.status).json({

@@ -9,6 +9,7 @@ import { benchEngine } from './engine.js';
 import { benchServer } from './server.js';
 import { benchPdf } from './pdf.js';
 import type { BenchModule, BenchRow } from './types.js';
+import { startTestCluster } from '../support/db.js';
 
 const BENCHES: { name: string; run: BenchModule }[] = [
   { name: 'engine', run: benchEngine },
@@ -35,6 +36,17 @@ function table(rows: BenchRow[]): string {
 
 async function main(): Promise<void> {
   const only = process.argv.slice(2);
+  // One throwaway cluster (fsync off, seeded template) for every bench that needs a database.
+  const cluster = process.env.TRAYPLAN_TEST_PG ? null : await startTestCluster();
+  if (cluster) process.env.TRAYPLAN_TEST_PG = cluster.baseUrl;
+  try {
+    await runAll(only);
+  } finally {
+    cluster?.cluster.stop();
+  }
+}
+
+async function runAll(only: string[]): Promise<void> {
   const results: { module: string; rows: BenchRow[] }[] = [];
   for (const bench of BENCHES) {
     if (only.length && !only.includes(bench.name)) continue;

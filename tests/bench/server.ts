@@ -5,7 +5,6 @@
 import autocannon from 'autocannon';
 import type { AddressInfo } from 'node:net';
 import { asc, eq } from 'drizzle-orm';
-import { startTestCluster } from '../support/db.js';
 import { Browser, testApp } from '../support/app.js';
 import { lessons, units } from '../../server/db/schema/index.js';
 import type { BenchRow } from './types.js';
@@ -15,8 +14,6 @@ function load(url: string, headers: Record<string, string>): Promise<autocannon.
 }
 
 export async function benchServer(): Promise<BenchRow[]> {
-  const started = process.env.TRAYPLAN_TEST_PG ? null : await startTestCluster();
-  if (started) process.env.TRAYPLAN_TEST_PG = started.baseUrl;
   const t = await testApp();
   const server = t.app.listen(0, '127.0.0.1');
   await new Promise((r) => server.once('listening', r));
@@ -52,6 +49,5 @@ export async function benchServer(): Promise<BenchRow[]> {
   } finally {
     server.close();
     await t.close();
-    started?.cluster.stop();
   }
 }

@@ -55,6 +55,9 @@ describe('sign-in and the shell', () => {
       const page = await context.newPage();
       await signInThroughPage(page, email);
       const nav = page.getByRole('navigation', { name: 'Main' });
+      // The mail outbox entry appears once the client learns the page exists: wait for the last
+      // expected entry before reading them all.
+      await nav.getByRole('link', { name: expected.at(-1)! }).waitFor();
       const labels = (await nav.getByRole('link').allInnerTexts()).map((s) => s.replace(/^\S+\n/, '').trim());
       // Icons are ligature text inside the link: keep only the visible label words.
       const clean = labels.map((l) => l.split('\n').at(-1)!.trim());

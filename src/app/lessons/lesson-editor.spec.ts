@@ -1,0 +1,293 @@
+import type { HarnessLoader } from '@angular/cdk/testing';
+import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
+import { HttpTestingController } from '@angular/common/http/testing';
+import { TestBed, type ComponentFixture } from '@angular/core/testing';
+import { MatButtonHarness } from '@angular/material/button/testing';
+import { MatCheckboxHarness } from '@angular/material/checkbox/testing';
+import { MatFormFieldHarness } from '@angular/material/form-field/testing';
+import { MatInputHarness } from '@angular/material/input/testing';
+import { MatSelectHarness } from '@angular/material/select/testing';
+import { Router } from '@angular/router';
+import { provideMarkdown } from 'ngx-markdown';
+import type { TubSummary } from '../../../shared/schemas/kits';
+import type { Lesson } from '../../../shared/schemas/lessons';
+import { Blank, errorBody, testProviders } from '../testing/test-providers';
+import { LessonEditor } from './lesson-editor';
+
+// Invented demo records; ids are valid UUIDs because the form checks them as the schema does.
+const CLASS_ID = '0b0e8a52-4d4f-4c43-9d0a-1a2b3c4d5e01';
+const KIT_ID = '0b0e8a52-4d4f-4c43-9d0a-1a2b3c4d5e02';
+const PERIOD_ID = '0b0e8a52-4d4f-4c43-9d0a-1a2b3c4d5e03';
+const TUB_IDS = ['0b0e8a52-4d4f-4c43-9d0a-1a2b3c4d5e11', '0b0e8a52-4d4f-4c43-9d0a-1a2b3c4d5e12'];
+const RETIRED_TUB = '0b0e8a52-4d4f-4c43-9d0a-1a2b3c4d5e13';
+
+function tub(id: string, label: string, status: TubSummary['status']): TubSummary {
+  return {
+    id,
+    kitTypeId: KIT_ID,
+    kitTypeName: 'Rover Builder Tub',
+    label,
+    controllerLabel: null,
+    status,
+    needsSorting: false,
+    version: 1,
+    missing: [],
+    missingLines: 0,
+    missingPieces: 0,
+    lessonCount: 0,
+  };
+}
+
+function lesson(overrides: Partial<Lesson> = {}): Lesson {
+  return {
+    id: 'lesson-1',
+    version: 3,
+    position: 1,
+    title: 'Build the rover',
+    unit: { id: 'unit-1', title: 'Rescue Rovers' },
+    class: { id: CLASS_ID, name: '4K', yearLevel: 4, studentCount: 26, devices: 8 },
+    kitType: { id: KIT_ID, name: 'Rover Builder Tub' },
+    tubIds: [...TUB_IDS],
+    tubs: [],
+    startsAt: '2026-07-28T11:10',
+    endsAt: '2026-07-28T12:00',
+    periodId: PERIOD_ID,
+    room: '',
+    groupSize: 3,
+    learningIntention: '',
+    successCriteria: '',
+    reliefNotes: '',
+    reliefTeacherId: null,
+    canEdit: true,
+    activities: [],
+    updatedAt: '2026-07-01T09:00:00+09:30',
+    ...overrides,
+  };
+}
+
+describe('LessonEditor', () => {
+  let fixture: ComponentFixture<LessonEditor>;
+  let loader: HarnessLoader;
+  let backend: HttpTestingController;
+
+  async function start(inputs: Record<string, string>): Promise<void> {
+    TestBed.configureTestingModule({
+      providers: [
+        testProviders([{ path: 'lessons/:id/edit', component: Blank }]),
+        provideMarkdown(),
+      ],
+    });
+    backend = TestBed.inject(HttpTestingController);
+    fixture = TestBed.createComponent(LessonEditor);
+    for (const [k, v] of Object.entries(inputs)) fixture.componentRef.setInput(k, v);
+    loader = TestbedHarnessEnvironment.loader(fixture);
+    fixture.detectChanges();
+    backend.expectOne('/api/classes').flush({
+      classes: [
+        {
+          id: CLASS_ID,
+          name: '4K',
+          yearLevel: 4,
+          studentCount: 26,
+          devices: 8,
+          teachers: [],
+          lessonCount: 0,
+        },
+      ],
+    });
+    backend.expectOne('/api/kit-types').flush({
+      kitTypes: [
+        {
+          id: KIT_ID,
+          name: 'Rover Builder Tub',
+          description: '',
+          version: 1,
+          partCount: 0,
+          pieceCount: 0,
+          tubCount: 3,
+          lessonCount: 0,
+        },
+      ],
+    });
+    backend.expectOne('/api/school').flush({
+      school: {
+        id: 'school-1',
+        name: 'Kestrel Ridge Primary School',
+        timezone: 'Australia/Adelaide',
+        paperSize: 'A4',
+        prep: {},
+        terms: [],
+        periods: [{ id: PERIOD_ID, name: 'Period 3', startsAt: '11:10', endsAt: '12:00' }],
+        nonTeachingDays: [],
+        version: 1,
+      },
+    });
+  }
+
+  /** Answers the kit type's parts list and tubs (one of them retired). */
+  function flushKit(): void {
+    backend.expectOne(`/api/kit-types/${KIT_ID}`).flush({
+      kitType: {
+        id: KIT_ID,
+        name: 'Rover Builder Tub',
+        description: '',
+        version: 1,
+        partCount: 0,
+        pieceCount: 0,
+        tubCount: 3,
+        lessonCount: 0,
+        parts: [],
+      },
+    });
+    backend
+      .expectOne((r) => r.url === '/api/tubs' && r.params.get('kitTypeId') === KIT_ID)
+      .flush({
+        tubs: [
+          tub(TUB_IDS[0]!, 'Tub 1', 'ready'),
+          tub(TUB_IDS[1]!, 'Tub 2', 'needs-sorting'),
+          tub(RETIRED_TUB, 'Tub 9', 'retired'),
+        ],
+      });
+  }
+
+  async function input(label: string): Promise<MatInputHarness> {
+    const field = await loader.getHarness(MatFormFieldHarness.with({ floatingLabelText: label }));
+    return (await field.getControl(MatInputHarness))!;
+  }
+
+  async function select(label: string, option: string | RegExp): Promise<void> {
+    const field = await loader.getHarness(MatFormFieldHarness.with({ floatingLabelText: label }));
+    const control = (await field.getControl(MatSelectHarness))!;
+    await control.open();
+    await control.clickOptions({ text: option });
+  }
+
+  afterEach(() => backend.verify());
+
+  it('creates a lesson with POST, booking the tubs that are not retired, and opens its editor', async () => {
+    await start({ unit: 'unit-1' });
+    await (await input('Lesson title')).setValue('Build the rover');
+    await select('Class', /4K/);
+    await select('Kit type', 'Rover Builder Tub');
+    flushKit();
+    fixture.detectChanges();
+    const boxes = await loader.getAllHarnesses(MatCheckboxHarness);
+    expect(await Promise.all(boxes.map((b) => b.isChecked()))).toEqual([true, true, false]);
+    await (await input('Date')).setValue('2026-07-28');
+    await select('Period', /Period 3/);
+    // Choosing a bell period fills the start and end from the bell times.
+    expect(await (await input('Starts')).getValue()).toBe('11:10');
+    expect(await (await input('Ends')).getValue()).toBe('12:00');
+
+    await (await loader.getHarness(MatButtonHarness.with({ text: 'Create lesson' }))).click();
+    const req = backend.expectOne('/api/units/unit-1/lessons');
+    expect(req.request.method).toBe('POST');
+    expect(req.request.body).toEqual(
+      jasmine.objectContaining({
+        title: 'Build the rover',
+        classId: CLASS_ID,
+        kitTypeId: KIT_ID,
+        tubIds: TUB_IDS,
+        startsAt: '2026-07-28T11:10',
+        endsAt: '2026-07-28T12:00',
+        periodId: PERIOD_ID,
+        groupSize: 3,
+      }),
+    );
+    req.flush(lesson(), { status: 201, statusText: 'Created' });
+    await fixture.whenStable();
+    expect(TestBed.inject(Router).url).toBe('/lessons/lesson-1/edit');
+  });
+
+  it('checks the window as the schema does and sends nothing when it ends before it starts', async () => {
+    await start({ unit: 'unit-1' });
+    await (await input('Date')).setValue('2026-07-28');
+    await (await input('Starts')).setValue('12:00');
+    await (await input('Ends')).setValue('11:00');
+    await (await loader.getHarness(MatButtonHarness.with({ text: 'Create lesson' }))).click();
+    backend.expectNone('/api/units/unit-1/lessons');
+    const ends = await loader.getHarness(MatFormFieldHarness.with({ floatingLabelText: 'Ends' }));
+    // The message of `lessonWindowProblem` in shared/schemas/lessons.ts.
+    expect(await ends.getTextErrors()).toEqual(['The lesson must end after it starts.']);
+    const title = await loader.getHarness(
+      MatFormFieldHarness.with({ floatingLabelText: 'Lesson title' }),
+    );
+    expect(await title.getTextErrors()).toEqual(['Enter a title.']);
+  });
+
+  it('sends only the changed fields with the version, and on a 409 offers Reload or Re-apply', async () => {
+    await start({ id: 'lesson-1' });
+    backend.expectOne('/api/lessons/lesson-1').flush(lesson());
+    flushKit();
+    fixture.detectChanges();
+    await (await input('Lesson title')).setValue('Build and test the rover');
+    expect(fixture.componentInstance.hasUnsavedChanges()).toBeTrue();
+    await (await loader.getHarness(MatButtonHarness.with({ text: 'Save lesson' }))).click();
+    const first = backend.expectOne('/api/lessons/lesson-1');
+    expect(first.request.method).toBe('PATCH');
+    expect(first.request.body).toEqual({ version: 3, title: 'Build and test the rover' });
+    const current = lesson({ version: 4, groupSize: 4 });
+    first.flush(
+      { error: { ...errorBody('stale-version', 'Someone else changed it.').error, current } },
+      { status: 409, statusText: 'Conflict' },
+    );
+    fixture.detectChanges();
+    const alert = (fixture.nativeElement as HTMLElement).querySelector('[role="alert"]');
+    expect(alert?.textContent).toContain('group size');
+    expect(alert?.textContent).toContain('not saved');
+    // Nothing was overwritten: the form still holds my title until I choose.
+    expect(await (await input('Lesson title')).getValue()).toBe('Build and test the rover');
+
+    await (await loader.getHarness(MatButtonHarness.with({ text: 'Re-apply my change' }))).click();
+    const second = backend.expectOne('/api/lessons/lesson-1');
+    expect(second.request.body).toEqual({ version: 4, title: 'Build and test the rover' });
+    second.flush(lesson({ version: 5, groupSize: 4, title: 'Build and test the rover' }));
+    flushKit();
+    expect(fixture.componentInstance.hasUnsavedChanges()).toBeFalse();
+  });
+
+  it('Reload after a 409 shows the lesson as it is now', async () => {
+    await start({ id: 'lesson-1' });
+    backend.expectOne('/api/lessons/lesson-1').flush(lesson());
+    flushKit();
+    await (await input('Lesson title')).setValue('My title');
+    await (await loader.getHarness(MatButtonHarness.with({ text: 'Save lesson' }))).click();
+    backend
+      .expectOne('/api/lessons/lesson-1')
+      .flush(
+        {
+          error: {
+            code: 'stale-version',
+            message: 'Changed.',
+            current: lesson({ version: 4, title: 'Their title' }),
+          },
+        },
+        { status: 409, statusText: 'Conflict' },
+      );
+    await (await loader.getHarness(MatButtonHarness.with({ text: 'Reload' }))).click();
+    flushKit();
+    expect(await (await input('Lesson title')).getValue()).toBe('Their title');
+    expect(fixture.componentInstance.hasUnsavedChanges()).toBeFalse();
+  });
+
+  it('shows server details under their fields (startsAt under Starts)', async () => {
+    await start({ id: 'lesson-1' });
+    backend.expectOne('/api/lessons/lesson-1').flush(lesson());
+    flushKit();
+    await (await input('Starts')).setValue('11:20');
+    await (await loader.getHarness(MatButtonHarness.with({ text: 'Save lesson' }))).click();
+    const req = backend.expectOne('/api/lessons/lesson-1');
+    // Moving the start leaves the bell period, so the period is sent as cleared.
+    expect(req.request.body).toEqual({ version: 3, startsAt: '2026-07-28T11:20', periodId: null });
+    req.flush(
+      errorBody('invalid-request', 'Check the details.', [
+        { path: 'startsAt', message: 'That time falls outside the school day.' },
+      ]),
+      { status: 400, statusText: 'Bad Request' },
+    );
+    const starts = await loader.getHarness(
+      MatFormFieldHarness.with({ floatingLabelText: 'Starts' }),
+    );
+    expect(await starts.getTextErrors()).toEqual(['That time falls outside the school day.']);
+  });
+});

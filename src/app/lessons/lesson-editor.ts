@@ -1,0 +1,379 @@
+import {
+  CdkDrag,
+  CdkDragHandle,
+  CdkDropList,
+  moveItemInArray,
+  type CdkDragDrop,
+} from '@angular/cdk/drag-drop';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  computed,
+  effect,
+  inject,
+  input,
+  signal,
+  untracked,
+  viewChildren,
+} from '@angular/core';
+import { FormGroup, ReactiveFormsModule } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MatCheckboxModule } from '@angular/material/checkbox';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatInputModule } from '@angular/material/input';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { MatSelectModule } from '@angular/material/select';
+import { Router, RouterLink } from '@angular/router';
+import { MarkdownComponent } from 'ngx-markdown';
+import type { SchoolClass } from '../../../shared/schemas/classes';
+import {
+  TUB_STATUS_LABELS,
+  type KitTypeSummary,
+  type Part,
+  type TubSummary,
+} from '../../../shared/schemas/kits';
+import {
+  ACTIVITY_KIND_LABELS,
+  lessonSchema,
+  MAX_GROUP_SIZE,
+  type Activity,
+  type Lesson,
+  type LessonUpdate,
+} from '../../../shared/schemas/lessons';
+import type { BellPeriod } from '../../../shared/schemas/school';
+import { AppError } from '../errors/app-error';
+import { Notifier } from '../errors/notifier';
+import { FieldErrorPipe } from '../forms/field-error';
+import { formErrorMessage } from '../forms/server-errors';
+import { ActivityEditor } from './activity-editor';
+import {
+  changedFields,
+  FIELD_LABELS,
+  formValueOf,
+  lessonBody,
+  lessonControls,
+  SERVER_PATHS,
+} from './lesson-form';
+import { LessonFormApi } from './lesson-form-api';
+import type { HasUnsavedChanges } from './unsaved-changes';
+
+/** A stale save: the lesson as it is now, and the change that was not saved. */
+interface Conflict {
+  current: Lesson;
+  change: Omit<LessonUpdate, 'version'>;
+  changedFields: string[];
+}
+
+/**
+ * `/lessons/new?unit=<id>` and `/lessons/:id/edit`: the lesson's details, then (once it exists)
+ * its activities in order with their materials and attachments.
+ */
+@Component({
+  selector: 'app-lesson-editor',
+  imports: [
+    ReactiveFormsModule,
+    RouterLink,
+    CdkDropList,
+    CdkDrag,
+    CdkDragHandle,
+    MarkdownComponent,
+    MatButtonModule,
+    MatCheckboxModule,
+    MatFormFieldModule,
+    MatIconModule,
+    MatInputModule,
+    MatProgressBarModule,
+    MatSelectModule,
+    ActivityEditor,
+    FieldErrorPipe,
+  ],
+  templateUrl: './lesson-editor.html',
+  styleUrl: './lesson-editor.scss',
+  host: { '(window:beforeunload)': 'beforeUnload($event)' },
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class LessonEditor implements HasUnsavedChanges {
+  private readonly api = inject(LessonFormApi);
+  private readonly router = inject(Router);
+  private readonly notifier = inject(Notifier);
+
+  /** Route parameter `:id` (editing), absent when creating. */
+  readonly id = input<string>();
+  /** Query parameter `unit` (creating). */
+  readonly unit = input<string>();
+
+  protected readonly groupSizes = Array.from({ length: MAX_GROUP_SIZE }, (_, i) => i + 1);
+  protected readonly kindLabels = ACTIVITY_KIND_LABELS;
+  protected readonly tubStatus = TUB_STATUS_LABELS;
+  protected readonly form = new FormGroup(lessonControls());
+  protected readonly lesson = signal<Lesson | null>(null);
+  protected readonly classes = signal<SchoolClass[]>([]);
+  protected readonly kitTypes = signal<KitTypeSummary[]>([]);
+  protected readonly tubs = signal<TubSummary[]>([]);
+  protected readonly parts = signal<Part[]>([]);
+  protected readonly periods = signal<BellPeriod[]>([]);
+  protected readonly activities = signal<Activity[]>([]);
+  /** The activity open in its editor ('new' for one being added). */
+  protected readonly editing = signal<string | null>(null);
+  protected readonly loadError = signal<string | null>(null);
+  protected readonly formError = signal<string | null>(null);
+  protected readonly orderMessage = signal<string | null>(null);
+  protected readonly conflict = signal<Conflict | null>(null);
+  protected readonly saving = signal(false);
+  protected readonly creating = computed(() => !this.id());
+  private readonly editors = viewChildren(ActivityEditor);
+
+  constructor() {
+    this.api.classes().subscribe((list) => this.classes.set(list));
+    this.api.kitTypes().subscribe((list) => this.kitTypes.set(list));
+    this.api.periods().subscribe((list) => this.periods.set(list));
+    effect(() => {
+      const id = this.id();
+      if (id) untracked(() => this.load(id));
+    });
+    const c = this.form.controls;
+    c.kitTypeId.valueChanges.subscribe((kitTypeId) => this.loadKit(kitTypeId, true));
+    c.periodId.valueChanges.subscribe((periodId) => {
+      const period = this.periods().find((p) => p.id === periodId);
+      if (period) {
+        c.startTime.setValue(period.startsAt, { emitEvent: false });
+        c.endTime.setValue(period.endsAt);
+      }
+    });
+    c.startTime.valueChanges.subscribe(() => {
+      this.dropPeriodIfMoved();
+      c.endTime.updateValueAndValidity();
+    });
+    c.date.valueChanges.subscribe(() => c.endTime.updateValueAndValidity());
+    c.endTime.valueChanges.subscribe(() => this.dropPeriodIfMoved());
+  }
+
+  hasUnsavedChanges(): boolean {
+    return this.form.dirty || this.editors().some((e) => e.isDirty());
+  }
+
+  protected beforeUnload(event: BeforeUnloadEvent): void {
+    if (this.hasUnsavedChanges()) event.preventDefault();
+  }
+
+  private load(id: string): void {
+    this.loadError.set(null);
+    this.api.lesson(id).subscribe({
+      next: (lesson) => this.fill(lesson),
+      error: (e: unknown) => this.loadError.set(e instanceof Error ? e.message : 'Not loaded.'),
+    });
+  }
+
+  private fill(lesson: Lesson): void {
+    this.lesson.set(lesson);
+    this.activities.set(lesson.activities);
+    this.form.reset(formValueOf(lesson), { emitEvent: false });
+    this.form.controls.endTime.updateValueAndValidity({ emitEvent: false });
+    this.loadKit(lesson.kitType.id, false);
+  }
+
+  /** The kit type's parts and tubs; a new kit type books its tubs that are not retired. */
+  private loadKit(kitTypeId: string | null, rebook: boolean): void {
+    this.parts.set([]);
+    this.tubs.set([]);
+    if (!kitTypeId) return;
+    this.api.kitType(kitTypeId).subscribe((kit) => this.parts.set(kit.parts));
+    this.api.tubs(kitTypeId).subscribe((tubs) => {
+      this.tubs.set(tubs);
+      if (rebook) {
+        this.form.controls.tubIds.setValue(
+          tubs.filter((t) => t.status !== 'retired').map((t) => t.id),
+        );
+      }
+    });
+  }
+
+  /** Times typed by hand that no longer match the chosen period leave the period. */
+  private dropPeriodIfMoved(): void {
+    const c = this.form.controls;
+    const period = this.periods().find((p) => p.id === c.periodId.value);
+    if (period && (period.startsAt !== c.startTime.value || period.endsAt !== c.endTime.value)) {
+      c.periodId.setValue(null, { emitEvent: false });
+    }
+  }
+
+  protected booked(tubId: string): boolean {
+    return this.form.controls.tubIds.value.includes(tubId);
+  }
+
+  protected toggleTub(tubId: string, on: boolean): void {
+    const ids = this.form.controls.tubIds.value.filter((id) => id !== tubId);
+    this.form.controls.tubIds.setValue(on ? [...ids, tubId] : ids);
+    this.form.controls.tubIds.markAsDirty();
+  }
+
+  protected tubLabel(tub: TubSummary): string {
+    const notes = [this.tubStatus[tub.status]];
+    if (tub.missingPieces) notes.push(`${tub.missingPieces} pieces missing`);
+    return `${tub.label} (${notes.join(', ')})`;
+  }
+
+  protected periodLabel(p: BellPeriod): string {
+    return `${p.name}, ${p.startsAt}–${p.endsAt}`;
+  }
+
+  protected activitySummary(a: Activity): string {
+    const things = a.materials.length === 1 ? '1 material' : `${a.materials.length} materials`;
+    return `${this.kindLabels[a.kind]} · ${a.minutes} min · ${things}`;
+  }
+
+  protected editLabel(a: Activity): string {
+    return `Edit ${a.title}`;
+  }
+
+  protected submit(): void {
+    this.formError.set(null);
+    if (this.form.invalid) {
+      this.form.markAllAsTouched();
+      this.formError.set('Check the fields marked below.');
+      return;
+    }
+    const body = lessonBody(this.form.getRawValue());
+    const lesson = this.lesson();
+    if (!lesson) {
+      const unitId = this.unit();
+      if (!unitId) {
+        this.formError.set('Open this page from a unit, so the lesson has a unit to go in.');
+        return;
+      }
+      this.saving.set(true);
+      this.api.create(unitId, body).subscribe({
+        next: (created) => {
+          this.form.markAsPristine();
+          this.notifier.info(`“${created.title}” is created. Add its activities below.`);
+          void this.router.navigate(['/lessons', created.id, 'edit']);
+        },
+        error: (error: unknown) => this.failed(error, {}),
+      });
+      return;
+    }
+    const change = changedFields(lesson, body);
+    if (Object.keys(change).length === 0) {
+      this.form.markAsPristine();
+      this.notifier.info('Nothing has changed.');
+      return;
+    }
+    this.save(lesson.version, change);
+  }
+
+  private save(version: number, change: Omit<LessonUpdate, 'version'>): void {
+    const lesson = this.lesson();
+    if (!lesson) return;
+    this.saving.set(true);
+    this.api.update(lesson.id, { version, ...change }).subscribe({
+      next: (saved) => {
+        this.saving.set(false);
+        this.conflict.set(null);
+        this.fill(saved);
+        this.notifier.info(`“${saved.title}” is saved.`);
+      },
+      error: (error: unknown) => this.failed(error, change),
+    });
+  }
+
+  private failed(error: unknown, change: Omit<LessonUpdate, 'version'>): void {
+    this.saving.set(false);
+    if (!(error instanceof AppError)) return this.notifier.errorNotShownYet(error);
+    const lesson = this.lesson();
+    if (error.status === 409 && lesson) {
+      const current = lessonSchema.safeParse(error.current);
+      if (current.success) {
+        const differs = changedFields(lesson, lessonBody(formValueOf(current.data)));
+        this.conflict.set({
+          current: current.data,
+          change,
+          changedFields: Object.keys(differs).map((k) => FIELD_LABELS[k as keyof typeof differs]),
+        });
+        return;
+      }
+    }
+    this.formError.set(formErrorMessage(this.form, error, (e) => e.message, SERVER_PATHS));
+  }
+
+  /** After a 409: drop my changes and show the lesson as it is now. */
+  protected reload(): void {
+    const conflict = this.conflict();
+    if (!conflict) return;
+    this.conflict.set(null);
+    this.fill(conflict.current);
+  }
+
+  /** After a 409: send my change again, on the version the server has now. */
+  protected reapply(): void {
+    const conflict = this.conflict();
+    if (!conflict) return;
+    this.lesson.set(conflict.current);
+    this.save(conflict.current.version, conflict.change);
+  }
+
+  protected drop(event: CdkDragDrop<Activity[]>): void {
+    const lesson = this.lesson();
+    if (!lesson || event.previousIndex === event.currentIndex) return;
+    const before = this.activities();
+    const next = [...before];
+    moveItemInArray(next, event.previousIndex, event.currentIndex);
+    this.activities.set(next);
+    this.orderMessage.set(null);
+    this.api
+      .reorder(
+        lesson.id,
+        lesson.version,
+        next.map((a) => a.id),
+      )
+      .subscribe({
+        next: (saved) => {
+          this.lesson.set(saved);
+          this.activities.set(saved.activities);
+        },
+        error: (error: unknown) => {
+          const current = error instanceof AppError ? lessonSchema.safeParse(error.current) : null;
+          if (current?.success) {
+            this.activities.set(current.data.activities);
+            if (!this.form.dirty) this.fill(current.data);
+            this.orderMessage.set(
+              'Someone changed this lesson meanwhile, so the new order was not saved. The current order is shown; move the activity again.',
+            );
+          } else {
+            this.activities.set(before);
+            this.orderMessage.set(
+              error instanceof Error ? error.message : 'The order was not saved.',
+            );
+          }
+        },
+      });
+  }
+
+  /** Moves an activity with the keyboard (drag-drop's alternative, WCAG 2.2 SC 2.5.7). */
+  protected move(index: number, by: number): void {
+    const to = index + by;
+    if (to < 0 || to >= this.activities().length) return;
+    this.drop({ previousIndex: index, currentIndex: to } as CdkDragDrop<Activity[]>);
+  }
+
+  protected activitySaved(activity: Activity): void {
+    const list = this.activities();
+    const known = list.some((a) => a.id === activity.id);
+    this.activities.set(
+      known ? list.map((a) => (a.id === activity.id ? activity : a)) : [...list, activity],
+    );
+    this.editing.set(activity.id);
+  }
+
+  protected activityClosed(id: string | null): void {
+    this.editing.set(null);
+    const lesson = this.lesson();
+    // A delete closes the editor too: the list is read again so it shows what is stored.
+    if (lesson && id) {
+      this.api.lesson(lesson.id).subscribe((fresh) => {
+        this.activities.set(fresh.activities);
+        if (!this.form.dirty) this.fill(fresh);
+      });
+    }
+  }
+}
