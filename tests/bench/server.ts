@@ -47,7 +47,12 @@ export async function benchServer(): Promise<BenchRow[]> {
       },
     ];
   } finally {
-    server.close();
+    // Let the last answers finish before the pool closes under them.
+    await new Promise<void>((resolve) => {
+      server.close(() => resolve());
+      server.closeIdleConnections();
+      setTimeout(() => server.closeAllConnections(), 2000).unref();
+    });
     await t.close();
   }
 }

@@ -8,7 +8,8 @@ import { MatTableHarness } from '@angular/material/table/testing';
 import type { KitType, TubSummary } from '../../../shared/schemas/kits';
 import { DEFAULT_PREP } from '../../../shared/schemas/school';
 import { Session } from '../auth/session';
-import { demoUser, testProviders } from '../testing/test-providers';
+import { Router } from '@angular/router';
+import { Blank, demoUser, errorBody, testProviders } from '../testing/test-providers';
 import { KitDetail } from './kit-detail';
 
 const KIT_ID = '6b1f3c1e-2a4d-4c59-9a51-0c7f4e2b8d10';
@@ -92,7 +93,9 @@ describe('KitDetail', () => {
   let backend: HttpTestingController;
 
   async function setUp(role: 'teacher' | 'lead'): Promise<void> {
-    TestBed.configureTestingModule({ providers: testProviders() });
+    TestBed.configureTestingModule({
+      providers: testProviders([{ path: 'kits', component: Blank }]),
+    });
     TestBed.inject(Session).update(demoUser(role));
     backend = TestBed.inject(HttpTestingController);
     fixture = TestBed.createComponent(KitDetail);
@@ -218,5 +221,72 @@ describe('KitDetail', () => {
       'Big wheel',
     ]);
     expect((fixture.nativeElement as HTMLElement).querySelector('.form-error')).toBeNull();
+  });
+
+  it('refuses to delete a kit type that lessons use (409) with the server message', async () => {
+    await setUp('teacher');
+    const navigate = spyOn(TestBed.inject(Router), 'navigate');
+    await (await loader.getHarness(MatButtonHarness.with({ text: /Delete kit type/ }))).click();
+    const dialog = TestbedHarnessEnvironment.documentRootLoader(fixture);
+    await (await dialog.getHarness(MatButtonHarness.with({ text: 'Delete kit type' }))).click();
+    const request = backend.expectOne(`/api/kit-types/${KIT_ID}`);
+    expect(request.request.method).toBe('DELETE');
+    const message =
+      'Rover Builder Tub is used by 8 lessons. Give them another kit type or delete them first.';
+    request.flush(errorBody('in-use', message), { status: 409, statusText: 'Conflict' });
+    fixture.detectChanges();
+    await fixture.whenStable();
+    const alert = document.querySelector('mat-dialog-container [role="alert"]');
+    expect(alert?.textContent).toContain(message);
+    // Trying again would be refused the same way: only Close is left.
+    expect(
+      await dialog.getAllHarnesses(MatButtonHarness.with({ text: 'Delete kit type' })),
+    ).toEqual([]);
+    await (await dialog.getHarness(MatButtonHarness.with({ text: 'Close' }))).click();
+    expect(navigate).not.toHaveBeenCalled();
+  });
+
+  it('deletes an unused kit type after asking and goes back to the kit types', async () => {
+    await setUp('teacher');
+    const navigate = spyOn(TestBed.inject(Router), 'navigate').and.resolveTo(true);
+    await (await loader.getHarness(MatButtonHarness.with({ text: /Delete kit type/ }))).click();
+    const dialog = TestbedHarnessEnvironment.documentRootLoader(fixture);
+    await (await dialog.getHarness(MatButtonHarness.with({ text: 'Delete kit type' }))).click();
+    backend
+      .expectOne(`/api/kit-types/${KIT_ID}`)
+      .flush(null, { status: 204, statusText: 'No Content' });
+    fixture.detectChanges();
+    await fixture.whenStable();
+    expect(navigate).toHaveBeenCalledOnceWith(['/kits']);
+  });
+
+  it('refuses to delete a tub that lessons book (409) with the server message', async () => {
+    await setUp('teacher');
+    await (
+      await loader.getHarness(MatButtonHarness.with({ selector: '[aria-label="Delete Tub 5"]' }))
+    ).click();
+    const dialog = TestbedHarnessEnvironment.documentRootLoader(fixture);
+    await (await dialog.getHarness(MatButtonHarness.with({ text: 'Delete Tub 5' }))).click();
+    const request = backend.expectOne('/api/tubs/tub-Tub%205');
+    expect(request.request.method).toBe('DELETE');
+    const message =
+      'Tub 5 is booked by 8 lessons. Take it off those lessons first, or mark it retired.';
+    request.flush(errorBody('in-use', message), { status: 409, statusText: 'Conflict' });
+    fixture.detectChanges();
+    await fixture.whenStable();
+    expect(document.querySelector('mat-dialog-container [role="alert"]')?.textContent).toContain(
+      message,
+    );
+    await (await dialog.getHarness(MatButtonHarness.with({ text: 'Close' }))).click();
+  });
+
+  it('hides the tub and kit type controls from a lead', async () => {
+    await setUp('lead');
+    for (const text of [/Add tub/, /Delete kit type/, /Edit name and description/]) {
+      expect(await loader.getAllHarnesses(MatButtonHarness.with({ text }))).toEqual([]);
+    }
+    expect(
+      await loader.getAllHarnesses(MatButtonHarness.with({ selector: '[aria-label^="Delete"]' })),
+    ).toEqual([]);
   });
 });

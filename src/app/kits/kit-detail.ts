@@ -16,21 +16,28 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatTableModule } from '@angular/material/table';
-import { RouterLink } from '@angular/router';
+import { Router, RouterLink } from '@angular/router';
 import {
   TUB_STATUS_LABELS,
   kitTypeSchema,
   type KitType,
+  type Part,
+  type Tub,
   type TubSummary,
 } from '../../../shared/schemas/kits';
 import { Session } from '../auth/session';
 import { AppError } from '../errors/app-error';
 import { Notifier } from '../errors/notifier';
+import { confirmDelete } from './delete-dialog';
 import { ImportDialog, type ImportDialogData } from './import-dialog';
 import { KIT_EDITORS } from './kit-list';
+import { KitTypeEditDialog } from './kit-type-edit-dialog';
 import { KitsApi, type Conflicts, type ReplacementLine } from './kits-api';
 import { PartsTable, type PartSave } from './parts-table';
 import { TubDialog, type TubDialogData } from './tub-dialog';
+import { TubFormDialog, type TubFormData } from './tub-form-dialog';
+
+const DIALOG_WIDTH = 'min(32rem, calc(100vw - 2rem))';
 
 /** Term 3 of 2026 in the demo calendar, used when the school has no term around today. */
 export const DEFAULT_RANGE = { from: '2026-07-20', to: '2026-09-26' };
@@ -61,6 +68,7 @@ export class KitDetail {
   private readonly dialog = inject(MatDialog);
   private readonly notifier = inject(Notifier);
   private readonly session = inject(Session);
+  private readonly router = inject(Router);
 
   protected readonly tubColumns = ['label', 'controllerLabel', 'status', 'missing', 'open'];
   protected readonly replacementColumns = ['partCode', 'name', 'missing', 'tubs'];
@@ -156,6 +164,68 @@ export class KitDetail {
       });
   }
 
+  protected editKit(kit: KitType): void {
+    this.dialog
+      .open(KitTypeEditDialog, { data: kit, width: DIALOG_WIDTH })
+      .afterClosed()
+      .subscribe((saved?: KitType) => {
+        if (!saved) return;
+        this.kit.set(saved);
+        this.notifier.info(`${saved.name} is saved.`);
+      });
+  }
+
+  /** Deletes the kit type after asking; the server refuses (409) while lessons use it. */
+  protected deleteKit(kit: KitType): void {
+    confirmDelete(this.dialog, {
+      title: `Delete ${kit.name}?`,
+      message:
+        `This deletes ${kit.name} with its parts list, part photos and ${kit.tubCount} ` +
+        `${kit.tubCount === 1 ? 'tub' : 'tubs'}. It cannot be undone.`,
+      confirm: 'Delete kit type',
+      run: () => this.api.delete(kit.id),
+    }).subscribe((gone) => {
+      if (!gone) return;
+      this.notifier.info(`${kit.name} is deleted.`);
+      void this.router.navigate(['/kits']);
+    });
+  }
+
+  protected addTub(kit: KitType): void {
+    this.openTubForm({ kitTypeId: kit.id });
+  }
+
+  protected editTub(tub: TubSummary): void {
+    this.openTubForm({ kitTypeId: tub.kitTypeId, tub });
+  }
+
+  /** Deletes a tub after asking; the server refuses (409) while lessons book it. */
+  protected deleteTub(tub: TubSummary): void {
+    confirmDelete(this.dialog, {
+      title: `Delete ${tub.label}?`,
+      message: `This deletes ${tub.label} with its missing parts and audit history. It cannot be undone.`,
+      confirm: `Delete ${tub.label}`,
+      run: () => this.api.deleteTub(tub.id),
+    }).subscribe((gone) => {
+      if (!gone) return;
+      this.notifier.info(`${tub.label} is deleted.`);
+      this.load(this.id());
+    });
+  }
+
+  /** A photo does not change the kit type's version, so only that part's flag is updated. */
+  protected photoChanged(part: Part): void {
+    this.kit.update(
+      (kit) =>
+        kit && {
+          ...kit,
+          parts: kit.parts.map((p) =>
+            p.code === part.code ? { ...p, hasPhoto: part.hasPhoto } : p,
+          ),
+        },
+    );
+  }
+
   protected loadConflicts(): void {
     const { from, to } = this.range.getRawValue();
     if (!/^\d{4}-\d{2}-\d{2}$/.test(from) || !/^\d{4}-\d{2}-\d{2}$/.test(to)) return;
@@ -165,6 +235,18 @@ export class KitDetail {
   /** Relief teachers record audits too; leads only read. */
   private canAudit(): boolean {
     return ['admin', 'teacher', 'relief'].includes(this.session.user()?.role ?? '');
+  }
+
+  private openTubForm(data: TubFormData): void {
+    this.dialog
+      .open(TubFormDialog, { data, width: DIALOG_WIDTH })
+      .afterClosed()
+      .subscribe((saved?: Tub) => {
+        if (!saved) return;
+        this.notifier.info(`${saved.label} is saved.`);
+        // The kit type's tub count and the replacement list follow the tubs.
+        this.load(this.id());
+      });
   }
 
   private send(request: PartSave, version: number): void {

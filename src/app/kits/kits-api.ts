@@ -5,6 +5,7 @@ import { z } from 'zod';
 import {
   kitTypeListSchema,
   kitTypeResponseSchema,
+  partSchema,
   partsImportResultSchema,
   tubAuditListSchema,
   tubListSchema,
@@ -12,11 +13,14 @@ import {
   type KitType,
   type KitTypeCreate,
   type KitTypeSummary,
+  type KitTypeUpdate,
   type Part,
   type Tub,
   type TubAudit,
   type TubAuditCreate,
+  type TubCreate,
   type TubSummary,
+  type TubUpdate,
 } from '../../../shared/schemas/kits';
 import { schoolSettingsResponseSchema } from '../../../shared/schemas/school';
 import { AppError, UNEXPECTED_RESPONSE_MESSAGE } from '../errors/app-error';
@@ -49,6 +53,11 @@ export type PartChange = Partial<Omit<Part, 'id' | 'hasPhoto'>>;
 export type ImportProgress =
   { kind: 'progress'; percent: number | null } | { kind: 'done'; imported: number };
 
+/** Progress of a part photo upload, then the part as saved (with `hasPhoto`). */
+export type PhotoProgress =
+  { kind: 'progress'; percent: number | null } | { kind: 'done'; part: Part };
+const photoResultSchema = z.object({ part: partSchema });
+
 /** Kit types, parts lists, tubs, audits and the kit reports (`/api/kit-types`, `/api/tubs`). */
 @Injectable({ providedIn: 'root' })
 export class KitsApi {
@@ -74,6 +83,23 @@ export class KitsApi {
       parseWith(kitTypeResponseSchema),
       map((b) => b.kitType),
     );
+  }
+
+  /** The dialog shows this request's errors (400, 409 `stale` or `name-taken`) itself. */
+  update(id: string, body: KitTypeUpdate): Observable<KitType> {
+    return this.http
+      .patch(`/api/kit-types/${encodeURIComponent(id)}`, body, { context: callerShowsErrors() })
+      .pipe(
+        parseWith(kitTypeResponseSchema),
+        map((b) => b.kitType),
+      );
+  }
+
+  /** The confirmation shows a 409 (`in-use`: lessons use it) itself. */
+  delete(id: string): Observable<void> {
+    return this.http
+      .delete(`/api/kit-types/${encodeURIComponent(id)}`, { context: callerShowsErrors() })
+      .pipe(map(() => undefined));
   }
 
   /** The page shows a 409 (stale version) itself; other errors go to the snack-bar. */
@@ -117,6 +143,50 @@ export class KitsApi {
       );
   }
 
+  /** Where a part's photo is served (the `<img>` source). */
+  photoUrl(id: string, code: string): string {
+    return `/api/kit-types/${encodeURIComponent(id)}/parts/${encodeURIComponent(code)}/photo`;
+  }
+
+  /** Uploads a part's photo as multipart field `file`, reporting upload progress. */
+  uploadPhoto(id: string, code: string, file: File): Observable<PhotoProgress> {
+    const form = new FormData();
+    form.append('file', file, file.name);
+    return this.http
+      .put(this.photoUrl(id, code), form, {
+        reportProgress: true,
+        observe: 'events',
+        context: callerShowsErrors(),
+      })
+      .pipe(
+        filter(
+          (e: HttpEvent<unknown>) =>
+            e.type === HttpEventType.UploadProgress || e.type === HttpEventType.Response,
+        ),
+        map((e): PhotoProgress => {
+          if (e.type === HttpEventType.UploadProgress) {
+            return {
+              kind: 'progress',
+              percent: e.total ? Math.round((100 * e.loaded) / e.total) : null,
+            };
+          }
+          if (e.type !== HttpEventType.Response) throw new Error('unreachable');
+          const result = photoResultSchema.safeParse(e.body);
+          if (!result.success) {
+            throw new AppError(0, 'unexpected-response', UNEXPECTED_RESPONSE_MESSAGE);
+          }
+          return { kind: 'done', part: result.data.part };
+        }),
+      );
+  }
+
+  /** The photo cell shows this request's errors itself. */
+  deletePhoto(id: string, code: string): Observable<void> {
+    return this.http
+      .delete(this.photoUrl(id, code), { context: callerShowsErrors() })
+      .pipe(map(() => undefined));
+  }
+
   /** Where the browser downloads the parts list as CSV. */
   partsCsvUrl(id: string): string {
     return `/api/kit-types/${encodeURIComponent(id)}/parts.csv`;
@@ -145,6 +215,31 @@ export class KitsApi {
       parseWith(tubResponseSchema),
       map((b) => b.tub),
     );
+  }
+
+  /** The dialog shows this request's errors (400, 409 `label-taken`) itself. */
+  createTub(body: TubCreate): Observable<Tub> {
+    return this.http.post('/api/tubs', body, { context: callerShowsErrors() }).pipe(
+      parseWith(tubResponseSchema),
+      map((b) => b.tub),
+    );
+  }
+
+  /** The dialog shows this request's errors (400, 409 `stale` or `label-taken`) itself. */
+  updateTub(id: string, body: TubUpdate): Observable<Tub> {
+    return this.http
+      .patch(`/api/tubs/${encodeURIComponent(id)}`, body, { context: callerShowsErrors() })
+      .pipe(
+        parseWith(tubResponseSchema),
+        map((b) => b.tub),
+      );
+  }
+
+  /** The confirmation shows a 409 (`in-use`: lessons book the tub) itself. */
+  deleteTub(id: string): Observable<void> {
+    return this.http
+      .delete(`/api/tubs/${encodeURIComponent(id)}`, { context: callerShowsErrors() })
+      .pipe(map(() => undefined));
   }
 
   audits(tubId: string): Observable<TubAudit[]> {

@@ -90,6 +90,8 @@ describe('PartsTable', () => {
     const [first] = await table.getRows();
     const cells = await first!.getCellTextByColumnName();
     expect(cells).toEqual({
+      // No photo stored, and no upload button for someone who may not edit.
+      photo: '',
       code: 'RB-CTL',
       name: 'Rover controller',
       colour: '—',

@@ -29,6 +29,7 @@ import {
 import { FieldErrorPipe } from '../forms/field-error';
 import { zodValidator } from '../forms/validators';
 import type { PartChange } from './kits-api';
+import { PartPhoto } from './part-photo';
 
 /** A request to save one edited row. */
 export interface PartSave {
@@ -59,6 +60,7 @@ const wholeIn = (min: number, max: number) =>
     MatButtonModule,
     MatIconModule,
     FieldErrorPipe,
+    PartPhoto,
   ],
   templateUrl: './parts-table.html',
   styleUrl: './parts-table.scss',
@@ -70,6 +72,10 @@ export class PartsTable {
   /** Whether a save is on its way (the row's controls wait). */
   readonly saving = input(false);
   readonly save = output<PartSave>();
+  /** The kit type whose parts these are (for the photo addresses). */
+  readonly kitTypeId = input('');
+  /** A part's photo was uploaded or removed (photos do not change the kit type's version). */
+  readonly photoChanged = output<Part>();
 
   private readonly sort = viewChild.required(MatSort);
   private readonly paginator = viewChild.required(MatPaginator);
@@ -78,6 +84,7 @@ export class PartsTable {
   protected readonly filter = signal('');
   protected readonly editingId = signal<string | null>(null);
   protected readonly columns = computed(() => [
+    'photo',
     'code',
     'name',
     'colour',

@@ -18,6 +18,7 @@ import { LessonEditor } from './lesson-editor';
 const CLASS_ID = '0b0e8a52-4d4f-4c43-9d0a-1a2b3c4d5e01';
 const KIT_ID = '0b0e8a52-4d4f-4c43-9d0a-1a2b3c4d5e02';
 const PERIOD_ID = '0b0e8a52-4d4f-4c43-9d0a-1a2b3c4d5e03';
+const RELIEF_ID = '00000000-0000-4000-8000-0000000000e1';
 const TUB_IDS = ['0b0e8a52-4d4f-4c43-9d0a-1a2b3c4d5e11', '0b0e8a52-4d4f-4c43-9d0a-1a2b3c4d5e12'];
 const RETIRED_TUB = '0b0e8a52-4d4f-4c43-9d0a-1a2b3c4d5e13';
 
@@ -122,6 +123,9 @@ describe('LessonEditor', () => {
         version: 1,
       },
     });
+    backend.expectOne('/api/relief/teachers').flush({
+      teachers: [{ id: RELIEF_ID, name: 'Robin Tally', email: 'relief@kestrel-ridge.example' }],
+    });
   }
 
   /** Answers the kit type's parts list and tubs (one of them retired). */
@@ -179,6 +183,7 @@ describe('LessonEditor', () => {
     expect(await (await input('Starts')).getValue()).toBe('11:10');
     expect(await (await input('Ends')).getValue()).toBe('12:00');
 
+    await select('Relief teacher', /Robin Tally/);
     await (await loader.getHarness(MatButtonHarness.with({ text: 'Create lesson' }))).click();
     const req = backend.expectOne('/api/units/unit-1/lessons');
     expect(req.request.method).toBe('POST');
@@ -192,6 +197,7 @@ describe('LessonEditor', () => {
         endsAt: '2026-07-28T12:00',
         periodId: PERIOD_ID,
         groupSize: 3,
+        reliefTeacherId: RELIEF_ID,
       }),
     );
     req.flush(lesson(), { status: 201, statusText: 'Created' });

@@ -55,7 +55,7 @@ import {
   lessonControls,
   SERVER_PATHS,
 } from './lesson-form';
-import { LessonFormApi } from './lesson-form-api';
+import { LessonFormApi, type ReliefTeacher } from './lesson-form-api';
 import type { HasUnsavedChanges } from './unsaved-changes';
 
 /** A stale save: the lesson as it is now, and the change that was not saved. */
@@ -113,6 +113,7 @@ export class LessonEditor implements HasUnsavedChanges {
   protected readonly tubs = signal<TubSummary[]>([]);
   protected readonly parts = signal<Part[]>([]);
   protected readonly periods = signal<BellPeriod[]>([]);
+  protected readonly reliefTeachers = signal<ReliefTeacher[]>([]);
   protected readonly activities = signal<Activity[]>([]);
   /** The activity open in its editor ('new' for one being added). */
   protected readonly editing = signal<string | null>(null);
@@ -128,6 +129,7 @@ export class LessonEditor implements HasUnsavedChanges {
     this.api.classes().subscribe((list) => this.classes.set(list));
     this.api.kitTypes().subscribe((list) => this.kitTypes.set(list));
     this.api.periods().subscribe((list) => this.periods.set(list));
+    this.api.reliefTeachers().subscribe((list) => this.reliefTeachers.set(list));
     effect(() => {
       const id = this.id();
       if (id) untracked(() => this.load(id));

@@ -1,3 +1,4 @@
+import { z } from 'zod';
 import { HttpClient, HttpEventType, type HttpEvent } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
 import { filter, map, type Observable } from 'rxjs';
@@ -37,12 +38,25 @@ const enc = encodeURIComponent;
  * What the lesson and activity editors read and write. Every write shows its own errors (field
  * details under fields, a 409 with Reload and Re-apply), so they all carry `callerShowsErrors()`.
  */
+const reliefTeacherListSchema = z.object({
+  teachers: z.array(z.object({ id: z.string(), name: z.string(), email: z.string() })),
+});
+export type ReliefTeacher = z.infer<typeof reliefTeacherListSchema>['teachers'][number];
+
 @Injectable({ providedIn: 'root' })
 export class LessonFormApi {
   private readonly http = inject(HttpClient);
 
   lesson(id: string): Observable<Lesson> {
     return this.http.get(`/api/lessons/${enc(id)}`).pipe(parseWith(lessonSchema));
+  }
+
+  /** The school's relief teachers, to assign one to a lesson (`GET /api/relief/teachers`). */
+  reliefTeachers(): Observable<ReliefTeacher[]> {
+    return this.http.get('/api/relief/teachers').pipe(
+      parseWith(reliefTeacherListSchema),
+      map((b) => b.teachers),
+    );
   }
 
   classes(): Observable<SchoolClass[]> {

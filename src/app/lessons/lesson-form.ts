@@ -74,6 +74,7 @@ export function lessonControls() {
       nonNullable: true,
       validators: [zodValidator(markdownText(10_000))],
     }),
+    reliefTeacherId: new FormControl<string | null>(null),
   };
 }
 
@@ -92,6 +93,7 @@ export interface LessonFormValue {
   learningIntention: string;
   successCriteria: string;
   reliefNotes: string;
+  reliefTeacherId: string | null;
 }
 
 /** The form's value for a stored lesson (`startsAt` is `2026-07-28T11:10`, school time). */
@@ -110,11 +112,12 @@ export function formValueOf(lesson: Lesson): LessonFormValue {
     learningIntention: lesson.learningIntention,
     successCriteria: lesson.successCriteria,
     reliefNotes: lesson.reliefNotes,
+    reliefTeacherId: lesson.reliefTeacherId,
   };
 }
 
 /** The body of `POST /api/units/:id/lessons` (and what a PATCH is compared against). */
-export function lessonBody(v: LessonFormValue): Required<Omit<LessonCreate, 'reliefTeacherId'>> {
+export function lessonBody(v: LessonFormValue): Required<LessonCreate> {
   return {
     title: v.title.trim(),
     classId: v.classId ?? '',
@@ -128,6 +131,7 @@ export function lessonBody(v: LessonFormValue): Required<Omit<LessonCreate, 'rel
     learningIntention: v.learningIntention,
     successCriteria: v.successCriteria,
     reliefNotes: v.reliefNotes,
+    reliefTeacherId: v.reliefTeacherId,
   };
 }
 
@@ -147,6 +151,7 @@ export const FIELD_LABELS: Record<keyof Body, string> = {
   learningIntention: 'learning intention',
   successCriteria: 'success criteria',
   reliefNotes: 'relief notes',
+  reliefTeacherId: 'relief teacher',
 };
 
 function same(a: unknown, b: unknown): boolean {

@@ -1,12 +1,5 @@
 import type { Routes } from '@angular/router';
-import { PagePlaceholder } from '../shell/page-placeholder';
+import { OutcomesPage } from './outcomes';
 
-/** Outcomes frameworks: browse, search and import; its screens replace the placeholder. */
-export const OUTCOMES_ROUTES: Routes = [
-  {
-    path: '',
-    title: 'Outcomes',
-    component: PagePlaceholder,
-    data: { heading: 'Outcomes', purpose: 'The learning outcomes frameworks units are planned against.' },
-  },
-];
+/** Outcomes frameworks: browse and search; admins and leads create and import. */
+export const OUTCOMES_ROUTES: Routes = [{ path: '', title: 'Outcomes', component: OutcomesPage }];

@@ -1,15 +1,13 @@
 import type { Routes } from '@angular/router';
-import { PagePlaceholder } from '../shell/page-placeholder';
+import { SchoolSettingsPage } from './school-settings';
+import { unsavedChangesGuard } from './unsaved-changes';
 
-/** The School area; its screens replace the placeholder. */
+/** The School area: the settings, calendar and prep allowances (admins). */
 export const SCHOOL_ROUTES: Routes = [
   {
     path: '',
-    title: 'School',
-    component: PagePlaceholder,
-    data: {
-      heading: 'School',
-      purpose: 'School settings: timezone, terms, bell times, paper size and prep allowances.',
-    },
+    title: 'School settings',
+    component: SchoolSettingsPage,
+    canDeactivate: [unsavedChangesGuard],
   },
 ];

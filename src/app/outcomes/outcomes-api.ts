@@ -1,0 +1,86 @@
+import { HttpClient, HttpEventType, type HttpEvent } from '@angular/common/http';
+import { Injectable, inject } from '@angular/core';
+import { filter, map, type Observable } from 'rxjs';
+import {
+  frameworkListSchema,
+  frameworkSchema,
+  outcomeImportResultSchema,
+  outcomeListSchema,
+  type Framework,
+  type OutcomeImportResult,
+  type Outcome,
+} from '../../../shared/schemas/outcomes';
+import { AppError, UNEXPECTED_RESPONSE_MESSAGE } from '../errors/app-error';
+import { callerShowsErrors } from '../errors/error-context';
+import { parseWith } from '../errors/parse';
+
+/** What the outcomes browser asks for; blank parts are left out of the query. */
+export interface OutcomeSearch {
+  frameworkId: string;
+  q: string;
+  yearBand: string;
+}
+
+/** Progress of an outcomes CSV upload, then its result. */
+export type OutcomeImportProgress =
+  { kind: 'progress'; percent: number | null } | { kind: 'done'; result: OutcomeImportResult };
+
+/** Outcomes frameworks and their outcomes (`/api/outcomes`). */
+@Injectable({ providedIn: 'root' })
+export class OutcomesApi {
+  private readonly http = inject(HttpClient);
+
+  frameworks(): Observable<Framework[]> {
+    return this.http.get('/api/outcomes/frameworks').pipe(
+      parseWith(frameworkListSchema),
+      map((b) => b.frameworks),
+    );
+  }
+
+  /** The dialog shows this request's errors (e.g. 409 `name-taken`) itself. */
+  createFramework(name: string): Observable<Framework> {
+    return this.http
+      .post('/api/outcomes/frameworks', { name }, { context: callerShowsErrors() })
+      .pipe(parseWith(frameworkSchema));
+  }
+
+  search(query: OutcomeSearch): Observable<{ outcomes: Outcome[]; truncated: boolean }> {
+    const params: Record<string, string> = {};
+    for (const [key, value] of Object.entries(query)) {
+      if (value.trim() !== '') params[key] = value.trim();
+    }
+    return this.http.get('/api/outcomes', { params }).pipe(parseWith(outcomeListSchema));
+  }
+
+  /** Uploads an outcomes CSV as multipart field `file`, reporting upload progress. */
+  importOutcomes(frameworkId: string, file: File): Observable<OutcomeImportProgress> {
+    const form = new FormData();
+    form.append('file', file, file.name);
+    return this.http
+      .post(`/api/outcomes/frameworks/${encodeURIComponent(frameworkId)}/import`, form, {
+        reportProgress: true,
+        observe: 'events',
+        context: callerShowsErrors(),
+      })
+      .pipe(
+        filter(
+          (e: HttpEvent<unknown>) =>
+            e.type === HttpEventType.UploadProgress || e.type === HttpEventType.Response,
+        ),
+        map((e): OutcomeImportProgress => {
+          if (e.type === HttpEventType.UploadProgress) {
+            return {
+              kind: 'progress',
+              percent: e.total ? Math.round((100 * e.loaded) / e.total) : null,
+            };
+          }
+          if (e.type !== HttpEventType.Response) throw new Error('unreachable');
+          const result = outcomeImportResultSchema.safeParse(e.body);
+          if (!result.success) {
+            throw new AppError(0, 'unexpected-response', UNEXPECTED_RESPONSE_MESSAGE);
+          }
+          return { kind: 'done', result: result.data };
+        }),
+      );
+  }
+}
