@@ -140,7 +140,8 @@ export function agendaRouter(ctx: AppContext): Router {
             ...plan.shortfalls.map((s) => ({
               lesson,
               kind: 'shortfall',
-              message: `${s.needed - s.allocated} × ${s.partCode} short${s.group ? ` for group ${s.group}` : ' in the class tray'}.`,
+              // The engine's sentence names the part by name ("Group 8 is short of 1 × Rover …").
+              message: s.message,
             })),
             ...plan.warnings.map((w) => ({ lesson, kind: w.code, message: w.message })),
           ]
