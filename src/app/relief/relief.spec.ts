@@ -2,6 +2,7 @@ import { HttpTestingController } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
 import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
 import { MatButtonHarness } from '@angular/material/button/testing';
+import { provideMarkdown } from 'ngx-markdown';
 import { testProviders } from '../testing/test-providers';
 import { Relief } from './relief';
 
@@ -14,12 +15,12 @@ const LESSON = {
   unitId: 'unit-1',
   unitTitle: 'Rescue Rovers',
   className: '4K',
-  reliefNotes: 'Groups sit by tub number.',
+  reliefNotes: 'Groups sit by **tub number**.',
 };
 
 describe('Relief', () => {
   it('lists the assigned lessons with their time, notes and a print button', async () => {
-    TestBed.configureTestingModule({ providers: testProviders() });
+    TestBed.configureTestingModule({ providers: [...testProviders(), provideMarkdown()] });
     const fixture = TestBed.createComponent(Relief);
     const http = TestBed.inject(HttpTestingController);
     http.expectOne('/api/relief/lessons').flush({ lessons: [LESSON] });
@@ -27,7 +28,11 @@ describe('Relief', () => {
     const text = (fixture.nativeElement as HTMLElement).textContent ?? '';
     // 2026-08-04 is a Tuesday (ISO 8601 calendar).
     expect(text).toContain('Tue 4 Aug 2026, 11:10 am–12:00 pm');
-    expect(text).toContain('Groups sit by tub number.');
+    // The notes are Markdown, printed with their emphasis (CommonMark §6.2 strong emphasis).
+    await new Promise((r) => setTimeout(r, 50));
+    await fixture.whenStable();
+    const strong = (fixture.nativeElement as HTMLElement).querySelector('.notes strong');
+    expect(strong?.textContent).toBe('tub number');
     const loader = TestbedHarnessEnvironment.loader(fixture);
     const print = await loader.getHarness(MatButtonHarness.with({ text: /Print lesson pack/ }));
     await print.click();
@@ -37,7 +42,7 @@ describe('Relief', () => {
   });
 
   it('says so when nothing is assigned', async () => {
-    TestBed.configureTestingModule({ providers: testProviders() });
+    TestBed.configureTestingModule({ providers: [...testProviders(), provideMarkdown()] });
     const fixture = TestBed.createComponent(Relief);
     TestBed.inject(HttpTestingController).expectOne('/api/relief/lessons').flush({ lessons: [] });
     await fixture.whenStable();

@@ -1,5 +1,6 @@
 import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
 import { RouterLink } from '@angular/router';
+import { MarkdownComponent } from 'ngx-markdown';
 import { MatButtonModule } from '@angular/material/button';
 import { MatCardModule } from '@angular/material/card';
 import { MatIconModule } from '@angular/material/icon';
@@ -11,7 +12,7 @@ import { ReliefApi, type ReliefLesson } from './relief-api';
 /** A relief teacher's page: each assigned lesson with its notes, a link and its lesson pack. */
 @Component({
   selector: 'app-relief',
-  imports: [RouterLink, MatButtonModule, MatCardModule, MatIconModule, MatProgressBarModule],
+  imports: [RouterLink, MarkdownComponent, MatButtonModule, MatCardModule, MatIconModule, MatProgressBarModule],
   templateUrl: './relief.html',
   styleUrl: './relief.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,

@@ -57,6 +57,7 @@ describe('Shell', () => {
       'Home',
       'Kits',
       'Classes',
+      'Outcomes',
       'School',
       'Members',
       'Mail outbox (development)',
