@@ -13,6 +13,7 @@ import {
   schools,
   schoolSettings,
   terms,
+  users,
 } from '../db/schema/index.js';
 import { HttpError, notFound, parse } from '../http.js';
 import { authorize } from '../auth/policy.js';
@@ -178,6 +179,20 @@ export function schoolRouter(ctx: AppContext): Router {
   router.get('/timezones', (req, res) => {
     requireActor(req);
     res.json({ timezones: timeZoneNames() });
+  });
+
+  /** The school's active teachers (for class teachers and co-authors): admins, leads, teachers. */
+  router.get('/teachers', async (req, res) => {
+    const actor = requireActor(req);
+    authorize(actor, 'classes.read');
+    const rows = await ctx.db
+      .select({ id: users.id, name: users.name, email: users.email })
+      .from(users)
+      .where(
+        and(eq(users.schoolId, actor.schoolId), eq(users.role, 'teacher'), eq(users.status, 'active')),
+      )
+      .orderBy(asc(users.name));
+    res.json({ teachers: rows });
   });
 
   router.put('/', async (req, res) => {

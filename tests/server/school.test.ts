@@ -312,3 +312,20 @@ describe('time zones (IANA tz database)', () => {
     assert.equal(isIanaTimeZone('Mars/Olympus_Mons'), false);
   });
 });
+
+describe('GET /api/school/teachers', () => {
+  it('lists the active teachers of the school to admins, leads and teachers, never another school’s', async () => {
+    const teacher = await signedIn(t.app, 'teacher@kestrel-ridge.example');
+    const res = await teacher.get('/api/school/teachers');
+    assert.equal(res.status, 200, res.text);
+    assert.deepEqual(
+      res.body.teachers.map((x: { email: string }) => x.email).sort(),
+      ['partner@kestrel-ridge.example', 'teacher@kestrel-ridge.example'],
+    );
+    const relief = await signedIn(t.app, 'relief@kestrel-ridge.example');
+    assert.equal((await relief.get('/api/school/teachers')).status, 403);
+    assert.equal((await new Browser(t.app).get('/api/school/teachers')).status, 401);
+    const other = await signedIn(t.app, 'admin@banksia-flat.example');
+    assert.deepEqual((await other.get('/api/school/teachers')).body.teachers, []);
+  });
+});

@@ -16,7 +16,7 @@ import { AppError } from '../errors/app-error';
 import { FieldErrorPipe } from '../forms/field-error';
 import { formErrorMessage } from '../forms/server-errors';
 import { zodValidator } from '../forms/validators';
-import { ClassesApi } from './classes-api';
+import { ClassesApi, type TeacherRef } from './classes-api';
 
 /** A number input's value (a number, or '' / null while empty) checked with the schema's rule. */
 function numberField(schema: z.ZodType, emptyMessage: string) {
@@ -73,6 +73,16 @@ const shape = classCreateSchema.shape;
           <mat-hint>Tablets or laptops the class can use to program the controllers</mat-hint>
           <mat-error>{{ form.controls.devices.errors | fieldError }}</mat-error>
         </mat-form-field>
+        <mat-form-field appearance="outline">
+          <mat-label>Teachers</mat-label>
+          <mat-select formControlName="teacherIds" multiple>
+            @for (teacher of teachers(); track teacher.id) {
+              <mat-option [value]="teacher.id">{{ teacher.name || teacher.email }}</mat-option>
+            }
+          </mat-select>
+          <mat-hint>Who teaches this class; left empty, you are its teacher</mat-hint>
+          <mat-error>{{ form.controls.teacherIds.errors | fieldError }}</mat-error>
+        </mat-form-field>
       </mat-dialog-content>
       <mat-dialog-actions align="end">
         <button matButton type="button" mat-dialog-close>Cancel</button>
@@ -106,7 +116,19 @@ export class ClassForm {
     devices: new FormControl<number | null>(this.editing?.devices ?? null, {
       validators: [numberField(shape.devices, 'Enter the number of devices (0 if none).')],
     }),
+    teacherIds: new FormControl<string[]>(this.editing?.teachers.map((t) => t.id) ?? [], {
+      nonNullable: true,
+    }),
   });
+  protected readonly teachers = signal<TeacherRef[]>([]);
+
+  constructor() {
+    this.api.teachers().subscribe({
+      next: (list) => this.teachers.set(list),
+      // Without the list the field stays empty; the server keeps the teachers as they are.
+      error: () => this.teachers.set([]),
+    });
+  }
   protected readonly submitting = signal(false);
   protected readonly formError = signal<string | null>(null);
 
@@ -122,6 +144,7 @@ export class ClassForm {
       yearLevel: Number(v.yearLevel),
       studentCount: Number(v.studentCount),
       devices: Number(v.devices),
+      ...(v.teacherIds.length || this.editing ? { teacherIds: v.teacherIds } : {}),
     };
     this.submitting.set(true);
     const request = this.editing ? this.api.update(this.editing.id, body) : this.api.create(body);

@@ -1,6 +1,7 @@
 import { HttpClient } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
 import { map, type Observable } from 'rxjs';
+import { z } from 'zod';
 import {
   classListSchema,
   classResponseSchema,
@@ -11,10 +12,24 @@ import {
 import { callerShowsErrors } from '../errors/error-context';
 import { parseWith } from '../errors/parse';
 
+const teacherListSchema = z.object({
+  teachers: z.array(z.object({ id: z.string(), name: z.string(), email: z.string() })),
+});
+/** A teacher of the school, as `GET /api/school/teachers` lists them. */
+export type TeacherRef = z.infer<typeof teacherListSchema>['teachers'][number];
+
 /** The school's classes (`/api/classes`). */
 @Injectable({ providedIn: 'root' })
 export class ClassesApi {
   private readonly http = inject(HttpClient);
+
+  /** The school's active teachers, to choose a class's teachers from. */
+  teachers(): Observable<TeacherRef[]> {
+    return this.http.get('/api/school/teachers').pipe(
+      parseWith(teacherListSchema),
+      map((b) => b.teachers),
+    );
+  }
 
   list(): Observable<SchoolClass[]> {
     return this.http.get('/api/classes').pipe(

@@ -45,6 +45,12 @@ describe('ClassForm', () => {
     fixture = TestBed.createComponent(ClassForm);
     loader = TestbedHarnessEnvironment.loader(fixture);
     fixture.detectChanges();
+    backend.expectOne('/api/school/teachers').flush({
+      teachers: [
+        { id: 't-jordan', name: 'Jordan Pereira', email: 'partner@kestrel-ridge.example' },
+        { id: 't-sam', name: 'Sam Kowhai', email: 'teacher@kestrel-ridge.example' },
+      ],
+    });
     await fixture.whenStable();
   }
 
@@ -110,6 +116,22 @@ describe('ClassForm', () => {
     const saved = { ...CLASS_4K, id: 'c-4m', name: '4M', studentCount: 24, devices: 12 };
     request.flush({ class: saved }, { status: 201, statusText: 'Created' });
     expect(close).toHaveBeenCalledOnceWith(saved);
+  });
+
+  it('sends the teachers picked for the class', async () => {
+    await setUp(null);
+    await (await input('Class name')).setValue('4M');
+    const [year, teachers] = await loader.getAllHarnesses(MatSelectHarness);
+    await year!.open();
+    await year!.clickOptions({ text: 'Year 4' });
+    await (await input('Number of students')).setValue('25');
+    await (await input('Number of devices')).setValue('7');
+    await teachers!.open();
+    await teachers!.clickOptions({ text: 'Jordan Pereira' });
+    await (await loader.getHarness(MatButtonHarness.with({ text: 'Add class' }))).click();
+    const request = backend.expectOne('/api/classes');
+    expect(request.request.body.teacherIds).toEqual(['t-jordan']);
+    request.flush({ class: { ...CLASS_4K, id: 'c-4m', name: '4M' } }, { status: 201, statusText: 'Created' });
   });
 
   it('puts a server error under its field', async () => {

@@ -53,6 +53,9 @@ describe('UnitList', () => {
     loader = TestbedHarnessEnvironment.loader(fixture);
     fixture.detectChanges();
     await fixture.whenStable();
+    backend.expectOne('/api/school/teachers').flush({
+      teachers: [{ id: 'owner-sam', name: 'Sam Kowhai', email: 'teacher@kestrel-ridge.example' }],
+    });
     backend.expectOne('/api/units?scope=mine').flush({ units: MINE });
     await fixture.whenStable();
   });
@@ -83,8 +86,8 @@ describe('UnitList', () => {
     expect(rows['title'].text).toEqual(['Bridges That Hold']);
   });
 
-  it('sends the year level, term, status and search filters', async () => {
-    const [year, term, status] = await loader.getAllHarnesses(MatSelectHarness);
+  it('sends the year level, term, status, owner and search filters', async () => {
+    const [year, term, status, owner] = await loader.getAllHarnesses(MatSelectHarness);
     await year.open();
     await year.clickOptions({ text: 'Year 4' });
     await fixture.whenStable();
@@ -99,12 +102,18 @@ describe('UnitList', () => {
     backend
       .expectOne('/api/units?scope=mine&yearLevel=4&term=3&status=endorsed')
       .flush({ units: [MINE[1]] });
+    await owner.open();
+    await owner.clickOptions({ text: 'Sam Kowhai' });
+    await fixture.whenStable();
+    backend
+      .expectOne('/api/units?scope=mine&yearLevel=4&term=3&status=endorsed&owner=owner-sam')
+      .flush({ units: [MINE[1]] });
     const search = await loader.getHarness(MatInputHarness.with({ selector: '[type=search]' }));
     await search.setValue('gates');
     await fixture.whenStable();
     // setValue types letter by letter; switchMap cancels all but the last request.
     backend
-      .expectOne('/api/units?scope=mine&yearLevel=4&term=3&status=endorsed&q=gates')
+      .expectOne('/api/units?scope=mine&yearLevel=4&term=3&status=endorsed&owner=owner-sam&q=gates')
       .flush({ units: [MINE[1]] });
     await fixture.whenStable();
     const rows = await (await loader.getHarness(MatTableHarness)).getCellTextByColumnName();

@@ -25,7 +25,7 @@ import {
   type UnitSummary,
 } from '../../../shared/schemas/units';
 import { TERMS, YEAR_LEVELS, yearLabel } from './labels';
-import { UnitsApi, type UnitFilters } from './units-api';
+import { UnitsApi, type TeacherRef, type UnitFilters } from './units-api';
 
 /** `/units`: "My units" and the school library, filtered by year level, term, status and text. */
 @Component({
@@ -74,6 +74,8 @@ export class UnitList {
   protected readonly yearLevel = signal<number | null>(null);
   protected readonly term = signal<number | null>(null);
   protected readonly status = signal<UnitStatus | null>(null);
+  protected readonly owner = signal<string | null>(null);
+  protected readonly teachers = signal<readonly TeacherRef[]>([]);
   protected readonly q = signal('');
   protected readonly loading = signal(true);
   protected readonly units = signal<readonly UnitSummary[]>([]);
@@ -83,10 +85,15 @@ export class UnitList {
     yearLevel: this.yearLevel(),
     term: this.term(),
     status: this.status(),
+    owner: this.owner(),
     q: this.q(),
   }));
 
   constructor() {
+    this.api
+      .teachers()
+      .pipe(catchError(() => of([] as TeacherRef[])))
+      .subscribe((list) => this.teachers.set(list));
     // switchMap: typing in the search box drops the answers of the earlier letters.
     toObservable(this.filters)
       .pipe(

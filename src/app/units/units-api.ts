@@ -1,3 +1,4 @@
+import { z } from 'zod';
 import { HttpClient, HttpParams } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
 import { map, type Observable } from 'rxjs';
@@ -29,8 +30,16 @@ export interface UnitFilters {
   yearLevel: number | null;
   term: number | null;
   status: UnitStatus | null;
+  /** A teacher's id: only units they own. */
+  owner: string | null;
   q: string;
 }
+
+const teacherListSchema = z.object({
+  teachers: z.array(z.object({ id: z.string(), name: z.string(), email: z.string() })),
+});
+/** A teacher of the school (`GET /api/school/teachers`). */
+export type TeacherRef = z.infer<typeof teacherListSchema>['teachers'][number];
 
 /** The printables of a unit (`/api/units/:id/pack.pdf`, `/prep.ics`). */
 export type UnitPrintable = 'pack.pdf' | 'prep.ics';
@@ -45,10 +54,19 @@ export class UnitsApi {
     if (filters.yearLevel !== null) params = params.set('yearLevel', filters.yearLevel);
     if (filters.term !== null) params = params.set('term', filters.term);
     if (filters.status !== null) params = params.set('status', filters.status);
+    if (filters.owner !== null) params = params.set('owner', filters.owner);
     if (filters.q.trim()) params = params.set('q', filters.q.trim());
     return this.http.get('/api/units', { params }).pipe(
       parseWith(unitListSchema),
       map((body) => body.units),
+    );
+  }
+
+  /** The school's teachers, for the owner filter. */
+  teachers(): Observable<TeacherRef[]> {
+    return this.http.get('/api/school/teachers').pipe(
+      parseWith(teacherListSchema),
+      map((body) => body.teachers),
     );
   }
 
