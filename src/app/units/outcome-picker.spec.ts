@@ -82,7 +82,7 @@ describe('OutcomePicker in the unit editor', () => {
     const loader = TestbedHarnessEnvironment.loader(fixture);
     fixture.detectChanges();
     backend.expectOne('/api/units/u-1').flush(UNIT);
-    backend.expectOne('/api/classes').flush({ classes: [] });
+    backend.expectOne('/api/school/teachers').flush({ teachers: [] });
     await fixture.whenStable();
     backend.expectOne('/api/outcomes/frameworks').flush({ frameworks: [FRAMEWORK] });
     (await request(backend, '/api/outcomes?frameworkId=f-1')).flush({

@@ -75,7 +75,7 @@ describe('UnitEditor', () => {
     root = TestbedHarnessEnvironment.documentRootLoader(fixture);
     fixture.detectChanges();
     backend.expectOne('/api/units/u-1').flush(unit());
-    backend.expectOne('/api/classes').flush({ classes: [] });
+    backend.expectOne('/api/school/teachers').flush({ teachers: [] });
     await fixture.whenStable();
     backend.expectOne('/api/outcomes/frameworks').flush({ frameworks: [] });
     await fixture.whenStable();

@@ -172,7 +172,7 @@ export class UnitEditor implements HasUnsavedChanges {
       });
     });
     // Names for the co-author list; without them only the current co-authors are offered.
-    this.api.classTeachers().subscribe({
+    this.api.teachers().subscribe({
       next: (list) => this.teachers.set(list),
       error: () => this.teachers.set([]),
     });

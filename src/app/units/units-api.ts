@@ -8,7 +8,6 @@ import {
   type Framework,
   type Outcome,
 } from '../../../shared/schemas/outcomes';
-import { classListSchema } from '../../../shared/schemas/classes';
 import {
   unitListSchema,
   unitSchema,
@@ -125,22 +124,5 @@ export class UnitsApi {
     let params = new HttpParams().set('frameworkId', frameworkId);
     if (q.trim()) params = params.set('q', q.trim());
     return this.http.get('/api/outcomes', { params }).pipe(parseWith(outcomeListSchema));
-  }
-
-  /**
-   * The school's teachers a teacher can see: there is no teacher list for teachers, so these are
-   * the teachers of the school's classes (`GET /api/classes`), each once, sorted by name.
-   */
-  classTeachers(): Observable<PersonRef[]> {
-    return this.http.get('/api/classes').pipe(
-      parseWith(classListSchema),
-      map((body) => {
-        const byId = new Map<string, PersonRef>();
-        for (const c of body.classes) for (const t of c.teachers) byId.set(t.id, t);
-        return [...byId.values()].sort((a, b) =>
-          (a.name || a.email).localeCompare(b.name || b.email),
-        );
-      }),
-    );
   }
 }
