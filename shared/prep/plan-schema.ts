@@ -3,7 +3,7 @@
  * with this schema; the engine's tests parse every generated plan with it too, so a count can
  * never be negative, fractional or NaN. Field names are part of the API.
  */
-import { z } from 'zod';
+import * as z from 'zod';
 
 const count = z.int().min(0);
 /** ISO 8601 with the zone's offset, seconds included: `2026-07-28T11:54:00+09:30`. */

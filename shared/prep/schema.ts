@@ -3,7 +3,7 @@
  * checked here; rules that relate fields to each other (part codes, duplicate labels, times in
  * the school's zone) are in `checks.ts` and run from the same schema.
  */
-import { z } from 'zod';
+import * as z from 'zod';
 import { crossCheck } from './checks.js';
 import { isKnownTimeZone, LOCAL_DATE_TIME } from './time.js';
 

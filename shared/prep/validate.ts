@@ -1,4 +1,4 @@
-import { z } from 'zod';
+import * as z from 'zod';
 import { crossCheck } from './checks.js';
 import { prepInputSchema, type ValidPrepInput } from './schema.js';
 

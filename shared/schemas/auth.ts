@@ -1,4 +1,4 @@
-import { z } from 'zod';
+import * as z from 'zod';
 import { emailSchema, personNameSchema, roleSchema } from './common.js';
 
 /** Password policy after NIST SP 800-63B §5.1.1: length only, no composition rules. */

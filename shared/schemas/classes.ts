@@ -1,5 +1,5 @@
 /** Classes: the groups of students a lesson is taught to. Used by the server and the client. */
-import { z } from 'zod';
+import * as z from 'zod';
 import { uuidSchema } from './common.js';
 
 /** A whole number in [min, max] with a message a teacher can read. */

@@ -1,4 +1,4 @@
-import { z } from 'zod';
+import * as z from 'zod';
 
 /** The four roles a member of a school can hold. */
 export const ROLES = ['admin', 'lead', 'teacher', 'relief'] as const;

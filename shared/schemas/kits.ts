@@ -2,7 +2,7 @@
  * Kit types (a named parts list), their parts, tubs (the physical kits) and pack-away audits.
  * Used by the server and the client; the CSV importer checks rows with `partInputSchema` too.
  */
-import { z } from 'zod';
+import * as z from 'zod';
 import { uuidSchema } from './common.js';
 
 export const PART_CATEGORIES = [

@@ -3,7 +3,7 @@
  * the API answers with. Limits follow PREP-RULES.md (group size 1–8, minutes 0–480, quantities
  * 0–10000, a window of at most 480 minutes) so whatever is stored can be planned.
  */
-import { z } from 'zod';
+import * as z from 'zod';
 import { uuidSchema } from './common.js';
 import {
   distinctIds,

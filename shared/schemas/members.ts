@@ -1,4 +1,4 @@
-import { z } from 'zod';
+import * as z from 'zod';
 import { emailSchema, roleSchema } from './common.js';
 
 export const MEMBER_STATUSES = ['active', 'invited', 'deactivated'] as const;

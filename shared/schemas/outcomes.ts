@@ -2,7 +2,7 @@
  * Outcomes frameworks (a school's curriculum outcomes, imported from CSV) and their outcomes:
  * request bodies, the CSV row rules and the records the API answers with.
  */
-import { z } from 'zod';
+import * as z from 'zod';
 import { uuidSchema } from './common.js';
 
 /** The message when a request body is not a JSON object at all. */

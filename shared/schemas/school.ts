@@ -2,7 +2,7 @@
  * School settings: name, IANA timezone, paper size, the prep allowances of PREP-RULES.md, and the
  * calendar (terms, bell periods, non-teaching days). Used by the server and the client alike.
  */
-import { z } from 'zod';
+import * as z from 'zod';
 import { uuidSchema } from './common.js';
 
 export const PAPER_SIZES = ['A4', 'Letter'] as const;

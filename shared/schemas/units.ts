@@ -3,7 +3,7 @@
  * with. The field builders at the top are shared with lessons.ts so every planning form words its
  * messages the same way.
  */
-import { z } from 'zod';
+import * as z from 'zod';
 import { uuidSchema } from './common.js';
 
 /** The message when a request body is not a JSON object at all. */

@@ -1,7 +1,7 @@
 import { HttpClient, HttpParams } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
 import type { Observable } from 'rxjs';
-import { z } from 'zod';
+import * as z from 'zod';
 import { prepTaskSchema } from '../../../shared/prep/plan-schema';
 import { parseWith } from '../errors/parse';
 

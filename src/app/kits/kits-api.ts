@@ -1,7 +1,7 @@
 import { HttpClient, HttpEventType, type HttpEvent } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
 import { filter, map, type Observable } from 'rxjs';
-import { z } from 'zod';
+import * as z from 'zod';
 import {
   kitTypeListSchema,
   kitTypeResponseSchema,

@@ -1,7 +1,7 @@
 import { HttpClient } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
 import type { Observable } from 'rxjs';
-import { z } from 'zod';
+import * as z from 'zod';
 import { parseWith } from '../errors/parse';
 import { downloadWithProgress, type DownloadEvent } from '../lessons/lessons-api';
 
