@@ -6,92 +6,61 @@
 import { after, before, describe, it } from 'node:test';
 import assert from 'node:assert/strict';
 import { eq } from 'drizzle-orm';
-import { Browser, signedIn, testApp, type TestApp } from '../support/app.js';
+import { Browser, testApp, type TestApp } from '../support/app.js';
 import {
-  activities,
-  attachments,
-  classes,
-  kitTypes,
-  materials,
-  parts,
-  schools,
-  tubs,
-  users,
-} from '../../server/db/schema/index.js';
-import { hashPassword } from '../../server/auth/passwords.js';
-import { DEMO_PASSWORD } from '../../server/seed/index.js';
+  ADMIN,
+  BANKSIA_FLAT,
+  LEAD,
+  OTHER_TEACHER,
+  PARTNER,
+  RELIEF,
+  TEACHER,
+  addTeacher,
+  browsers,
+  insertClass,
+  insertKit,
+  insertTubs,
+  schoolIds,
+  userIds,
+  type SignIn,
+} from '../support/planning.js';
+import { activities, attachments, materials } from '../../server/db/schema/index.js';
 
 let t: TestApp;
-const TEACHER = 'teacher@kestrel-ridge.example';
-const PARTNER = 'partner@kestrel-ridge.example';
-const LEAD = 'lead@kestrel-ridge.example';
-const ADMIN = 'admin@kestrel-ridge.example';
-const RELIEF = 'relief@kestrel-ridge.example';
-const OTHER_TEACHER = 'teacher@banksia-flat.example';
-const ids: Record<string, string> = {};
+let as: SignIn;
+let ids: Record<string, string> = {};
 let lessonId = '';
-
-const browsers = new Map<string, Browser>();
-async function as(email: string): Promise<Browser> {
-  if (!browsers.has(email)) browsers.set(email, await signedIn(t.app, email));
-  return browsers.get(email)!;
-}
 
 before(async () => {
   t = await testApp();
+  as = browsers(t.app);
   const db = t.database.db;
-  const [k] = await db
-    .select()
-    .from(schools)
-    .where(eq(schools.name, 'Kestrel Ridge Primary School'));
-  const [b] = await db.select().from(schools).where(eq(schools.name, 'Banksia Flat School'));
-  await db.insert(users).values({
-    schoolId: b!.id,
-    email: OTHER_TEACHER,
-    name: 'Other Teacher',
-    role: 'teacher',
-    status: 'active',
-    passwordHash: await hashPassword(DEMO_PASSWORD),
+  const { kestrel } = await schoolIds(db);
+  await addTeacher(db, BANKSIA_FLAT, OTHER_TEACHER);
+  ids = await userIds(db);
+  const kitId = await insertKit(db, kestrel, {
+    name: 'Trial Rover Tub',
+    parts: [
+      { code: 'TR-001', name: 'Controller', category: 'controller', qty: 1, chargeMinutes: 180 },
+      { code: 'TR-010', name: 'Motor', category: 'motor', qty: 2 },
+      { code: 'TR-020', name: 'Pin', category: 'connector', qty: 40, small: true },
+    ],
   });
-  for (const u of await db.select().from(users)) ids[u.email] = u.id;
-  const [kit] = await db
-    .insert(kitTypes)
-    .values({ schoolId: k!.id, name: 'Trial Rover Tub' })
-    .returning();
-  await db.insert(parts).values([
-    {
-      kitTypeId: kit!.id,
-      position: 1,
-      code: 'TR-001',
-      name: 'Controller',
-      category: 'controller',
-      qty: 1,
-      chargeMinutes: 180,
-    },
-    { kitTypeId: kit!.id, position: 2, code: 'TR-010', name: 'Motor', category: 'motor', qty: 2 },
-    {
-      kitTypeId: kit!.id,
-      position: 3,
-      code: 'TR-020',
-      name: 'Pin',
-      category: 'connector',
-      qty: 40,
-      small: true,
-    },
-  ]);
-  await db.insert(tubs).values({ schoolId: k!.id, kitTypeId: kit!.id, label: 'Tub 1' });
-  const [cls] = await db
-    .insert(classes)
-    .values({ schoolId: k!.id, name: '4Q', yearLevel: 4, studentCount: 24, devices: 6 })
-    .returning();
+  await insertTubs(db, kestrel, kitId, ['Tub 1']);
+  const classId = await insertClass(db, kestrel, {
+    name: '4Q',
+    yearLevel: 4,
+    studentCount: 24,
+    devices: 6,
+  });
   // A unit shared with the school, so the partner is a reader (not an author) of its lesson.
   const owner = await as(TEACHER);
   const unit = await owner.post('/api/units', { title: 'Activity host', yearLevel: 4 });
   await owner.patch(`/api/units/${unit.body.id}`, { version: 1, visibility: 'school' });
   const lesson = await owner.post(`/api/units/${unit.body.id}/lessons`, {
     title: 'Motors',
-    classId: cls!.id,
-    kitTypeId: kit!.id,
+    classId,
+    kitTypeId: kitId,
     startsAt: '2026-07-28T11:10',
     endsAt: '2026-07-28T12:00',
     groupSize: 4,

@@ -2,7 +2,8 @@ import { after, before, describe, it } from 'node:test';
 import assert from 'node:assert/strict';
 import { eq } from 'drizzle-orm';
 import { Browser, signedIn, testApp, type TestApp } from '../support/app.js';
-import { classes, classTeachers, lessons, units, users } from '../../server/db/schema/index.js';
+import { ADMIN, OTHER_ADMIN, TEACHER, insertTestLesson, userByEmail } from '../support/planning.js';
+import { classes, classTeachers } from '../../server/db/schema/index.js';
 
 let t: TestApp;
 before(async () => {
@@ -12,13 +13,13 @@ after(async () => {
   await t.close();
 });
 
-const ADMIN = 'admin@kestrel-ridge.example';
-const TEACHER = 'teacher@kestrel-ridge.example';
-const OTHER_ADMIN = 'admin@banksia-flat.example';
+const userId = async (email: string) => (await userByEmail(t.database.db, email)).id;
 
-async function userId(email: string): Promise<string> {
-  const [u] = await t.database.db.select().from(users).where(eq(users.email, email));
-  return u!.id;
+/** Adds a class through the API, as set-up for a test of other routes; returns the class. */
+async function newClass(b: Browser, body: Record<string, unknown>) {
+  const res = await b.post('/api/classes', body);
+  assert.equal(res.status, 201, res.text);
+  return res.body.class;
 }
 
 const classCount = async () => (await t.database.db.select().from(classes)).length;
@@ -27,26 +28,12 @@ const classCount = async () => (await t.database.db.select().from(classes)).leng
 async function lessonFor(classId: string): Promise<void> {
   const admin = await signedIn(t.app, ADMIN);
   const kit = await admin.post('/api/kit-types', { name: `Kit for class ${classId.slice(0, 8)}` });
-  const [teacher] = await t.database.db.select().from(users).where(eq(users.email, TEACHER));
-  const [unit] = await t.database.db
-    .insert(units)
-    .values({
-      schoolId: teacher!.schoolId,
-      ownerId: teacher!.id,
-      title: 'A test unit',
-      yearLevel: 3,
-    })
-    .returning();
-  await t.database.db.insert(lessons).values({
-    unitId: unit!.id,
-    schoolId: teacher!.schoolId,
-    position: 0,
-    title: 'A test lesson',
+  await insertTestLesson(t.database.db, await userByEmail(t.database.db, TEACHER), {
     classId,
     kitTypeId: kit.body.kitType.id,
+    yearLevel: 3,
     startsAt: '2026-07-28T11:10:00',
     endsAt: '2026-07-28T12:00:00',
-    groupSize: 3,
   });
 }
 
@@ -67,13 +54,12 @@ describe('classes: who may do what', () => {
 
   it('a relief teacher may not list classes, and neither relief nor a lead may change them (403)', async () => {
     const admin = await signedIn(t.app, ADMIN);
-    const made = await admin.post('/api/classes', {
+    const { id } = await newClass(admin, {
       name: '3R',
       yearLevel: 3,
       studentCount: 20,
       devices: 5,
     });
-    const id = made.body.class.id;
     const relief = await signedIn(t.app, 'relief@kestrel-ridge.example');
     assert.equal((await relief.get('/api/classes')).status, 403);
     assert.equal((await relief.get(`/api/classes/${id}`)).status, 403);
@@ -95,13 +81,12 @@ describe('classes: who may do what', () => {
 
   it("another school's class is not found (404) and not listed", async () => {
     const admin = await signedIn(t.app, ADMIN);
-    const made = await admin.post('/api/classes', {
+    const { id } = await newClass(admin, {
       name: '5B',
       yearLevel: 5,
       studentCount: 24,
       devices: 6,
     });
-    const id = made.body.class.id;
     const other = await signedIn(t.app, OTHER_ADMIN);
     assert.equal((await other.get(`/api/classes/${id}`)).status, 404);
     assert.equal((await other.patch(`/api/classes/${id}`, { devices: 1 })).status, 404);
@@ -246,13 +231,12 @@ describe('classes: creating', () => {
 describe('classes: changing and deleting', () => {
   it('PATCH changes the given fields and replaces the teachers', async () => {
     const admin = await signedIn(t.app, ADMIN);
-    const made = await admin.post('/api/classes', {
+    const { id } = await newClass(admin, {
       name: '1P',
       yearLevel: 1,
       studentCount: 22,
       devices: 4,
     });
-    const id = made.body.class.id;
     const partner = await userId('partner@kestrel-ridge.example');
     const res = await (
       await signedIn(t.app, TEACHER)
@@ -276,13 +260,8 @@ describe('classes: changing and deleting', () => {
 
   it('PATCH refuses bad input (400, nothing changed), an empty change, and a taken name (409)', async () => {
     const admin = await signedIn(t.app, ADMIN);
-    const made = await admin.post('/api/classes', {
-      name: '1Q',
-      yearLevel: 1,
-      studentCount: 22,
-      devices: 4,
-    });
-    const id = made.body.class.id;
+    const made = await newClass(admin, { name: '1Q', yearLevel: 1, studentCount: 22, devices: 4 });
+    const id = made.id;
     const bad = await admin.patch(`/api/classes/${id}`, { studentCount: 99, name: '' });
     assert.equal(bad.status, 400);
     assert.deepEqual(bad.body.error.details.map((d: { path: string }) => d.path).sort(), [
@@ -295,7 +274,7 @@ describe('classes: changing and deleting', () => {
       409,
       '1P exists',
     );
-    assert.deepEqual((await admin.get(`/api/classes/${id}`)).body.class, made.body.class);
+    assert.deepEqual((await admin.get(`/api/classes/${id}`)).body.class, made);
   });
 
   it('deleting a class that lessons use is refused (409, clear message); an unused one goes (204)', async () => {

@@ -4,17 +4,14 @@ import { crc32 } from 'node:zlib';
 import { eq } from 'drizzle-orm';
 import { Browser, signedIn, testApp, type TestApp } from '../support/app.js';
 import {
-  classes,
-  kitTypes,
-  lessons,
-  lessonTubs,
-  partPhotos,
-  parts,
-  tubMissing,
-  tubs,
-  units,
-  users,
-} from '../../server/db/schema/index.js';
+  ADMIN,
+  OTHER_ADMIN,
+  TEACHER,
+  insertClass,
+  insertTestLesson,
+  userByEmail,
+} from '../support/planning.js';
+import { kitTypes, partPhotos, parts, tubMissing, tubs } from '../../server/db/schema/index.js';
 
 let t: TestApp;
 before(async () => {
@@ -23,10 +20,6 @@ before(async () => {
 after(async () => {
   await t.close();
 });
-
-const ADMIN = 'admin@kestrel-ridge.example';
-const TEACHER = 'teacher@kestrel-ridge.example';
-const OTHER_ADMIN = 'admin@banksia-flat.example';
 
 /**
  * A valid 1×1 RGBA PNG. ISO/IEC 15948 (PNG) §5.2: the signature 89 50 4E 47 0D 0A 1A 0A; §5.3:
@@ -99,32 +92,24 @@ async function upload(
 /** A lesson using the kit type (and booking the tubs), written straight to the database. */
 async function lessonUsing(kitTypeId: string, tubIds: string[] = []): Promise<void> {
   const db = t.database.db;
-  const [teacher] = await db.select().from(users).where(eq(users.email, TEACHER));
-  const schoolId = teacher!.schoolId;
-  const [cls] = await db
-    .insert(classes)
-    .values({ schoolId, name: `C-${kitTypeId.slice(0, 6)}`, yearLevel: 4, studentCount: 20 })
-    .returning();
-  const [unit] = await db
-    .insert(units)
-    .values({ schoolId, ownerId: teacher!.id, title: 'A test unit', yearLevel: 4 })
-    .returning();
-  const [lesson] = await db
-    .insert(lessons)
-    .values({
-      unitId: unit!.id,
-      schoolId,
-      position: 0,
-      title: 'A test lesson',
-      classId: cls!.id,
+  const teacher = await userByEmail(db, TEACHER);
+  const classId = await insertClass(db, teacher.schoolId, {
+    name: `C-${kitTypeId.slice(0, 6)}`,
+    yearLevel: 4,
+    studentCount: 20,
+  });
+  await insertTestLesson(
+    db,
+    teacher,
+    {
+      classId,
       kitTypeId,
+      yearLevel: 4,
       startsAt: '2026-07-28T11:10:00',
       endsAt: '2026-07-28T12:00:00',
-      groupSize: 3,
-    })
-    .returning();
-  if (tubIds.length)
-    await db.insert(lessonTubs).values(tubIds.map((tubId) => ({ lessonId: lesson!.id, tubId })));
+    },
+    tubIds,
+  );
 }
 
 describe('kit types: who may do what', () => {

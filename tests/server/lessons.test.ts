@@ -6,30 +6,29 @@ import { after, before, describe, it } from 'node:test';
 import assert from 'node:assert/strict';
 import { eq } from 'drizzle-orm';
 import { DateTime } from 'luxon';
-import { Browser, signedIn, testApp, type TestApp } from '../support/app.js';
+import { Browser, testApp, type TestApp } from '../support/app.js';
 import {
-  activities,
-  bellPeriods,
-  classes,
-  kitTypes,
-  lessons,
-  lessonTubs,
-  parts,
-  schools,
-  tubs,
-  users,
-} from '../../server/db/schema/index.js';
-import { hashPassword } from '../../server/auth/passwords.js';
-import { DEMO_PASSWORD } from '../../server/seed/index.js';
+  ADMIN,
+  BANKSIA_FLAT,
+  LEAD,
+  OTHER_TEACHER,
+  PARTNER,
+  RELIEF,
+  TEACHER,
+  addTeacher,
+  browsers,
+  insertClass,
+  insertKit,
+  insertTubs,
+  schoolIds,
+  userIds,
+  type SignIn,
+} from '../support/planning.js';
+import { activities, bellPeriods, lessons, lessonTubs } from '../../server/db/schema/index.js';
 
 let t: TestApp;
-const TEACHER = 'teacher@kestrel-ridge.example';
-const PARTNER = 'partner@kestrel-ridge.example';
-const LEAD = 'lead@kestrel-ridge.example';
-const ADMIN = 'admin@kestrel-ridge.example';
-const RELIEF = 'relief@kestrel-ridge.example';
-const OTHER_TEACHER = 'teacher@banksia-flat.example';
-const ids: Record<string, string> = {};
+let as: SignIn;
+let ids: Record<string, string> = {};
 /** Invented test records: kit types, tubs by label, classes, periods. */
 const f = {
   kit: '',
@@ -43,76 +42,45 @@ const f = {
   tub: {} as Record<string, string>,
 };
 
-const browsers = new Map<string, Browser>();
-async function as(email: string): Promise<Browser> {
-  if (!browsers.has(email)) browsers.set(email, await signedIn(t.app, email));
-  return browsers.get(email)!;
-}
-
 before(async () => {
   t = await testApp();
+  as = browsers(t.app);
   const db = t.database.db;
-  const [k] = await db
-    .select()
-    .from(schools)
-    .where(eq(schools.name, 'Kestrel Ridge Primary School'));
-  const [b] = await db.select().from(schools).where(eq(schools.name, 'Banksia Flat School'));
-  await db.insert(users).values({
-    schoolId: b!.id,
-    email: OTHER_TEACHER,
-    name: 'Other Teacher',
-    role: 'teacher',
-    status: 'active',
-    passwordHash: await hashPassword(DEMO_PASSWORD),
-  });
-  for (const u of await db.select().from(users)) ids[u.email] = u.id;
-  const kit = async (schoolId: string, name: string, codes: string[]) => {
-    const [row] = await db.insert(kitTypes).values({ schoolId, name }).returning();
-    await db.insert(parts).values(
-      codes.map((code, i) => ({
-        kitTypeId: row!.id,
-        position: i + 1,
-        code,
-        name: `Part ${code}`,
-        qty: 4,
-      })),
-    );
-    return row!.id;
+  const { kestrel, banksia } = await schoolIds(db);
+  await addTeacher(db, BANKSIA_FLAT, OTHER_TEACHER);
+  ids = await userIds(db);
+  const kit = (schoolId: string, name: string, codes: string[]) =>
+    insertKit(db, schoolId, {
+      name,
+      parts: codes.map((code) => ({ code, name: `Part ${code}`, qty: 4 })),
+    });
+  f.kit = await kit(kestrel, 'Trial Rover Tub', ['TR-001', 'TR-010', 'TR-020']);
+  f.gateKit = await kit(kestrel, 'Trial Gate Tub', ['TG-001']);
+  f.mk2Kit = await kit(kestrel, 'Trial Rover Mk2', ['TR-001', 'TR-010', 'TR-020', 'TR-030']);
+  f.farKit = await kit(banksia, 'Far Tub', ['FR-001']);
+  f.tub = {
+    ...(await insertTubs(db, kestrel, f.kit, [
+      { label: 'Tub 2', status: 'ready' },
+      { label: 'Tub 1', status: 'ready' },
+      { label: 'Tub 10', status: 'needs-sorting' },
+      { label: 'Tub 4', status: 'retired' },
+    ])),
+    ...(await insertTubs(db, kestrel, f.gateKit, ['Gate 1'])),
+    ...(await insertTubs(db, kestrel, f.mk2Kit, ['Mk2 A'])),
+    ...(await insertTubs(db, banksia, f.farKit, ['Far 1'])),
   };
-  f.kit = await kit(k!.id, 'Trial Rover Tub', ['TR-001', 'TR-010', 'TR-020']);
-  f.gateKit = await kit(k!.id, 'Trial Gate Tub', ['TG-001']);
-  f.mk2Kit = await kit(k!.id, 'Trial Rover Mk2', ['TR-001', 'TR-010', 'TR-020', 'TR-030']);
-  f.farKit = await kit(b!.id, 'Far Tub', ['FR-001']);
-  const tubRows = await db
-    .insert(tubs)
-    .values([
-      { schoolId: k!.id, kitTypeId: f.kit, label: 'Tub 2', status: 'ready' },
-      { schoolId: k!.id, kitTypeId: f.kit, label: 'Tub 1', status: 'ready' },
-      { schoolId: k!.id, kitTypeId: f.kit, label: 'Tub 10', status: 'needs-sorting' },
-      { schoolId: k!.id, kitTypeId: f.kit, label: 'Tub 4', status: 'retired' },
-      { schoolId: k!.id, kitTypeId: f.gateKit, label: 'Gate 1' },
-      { schoolId: k!.id, kitTypeId: f.mk2Kit, label: 'Mk2 A' },
-      { schoolId: b!.id, kitTypeId: f.farKit, label: 'Far 1' },
-    ])
-    .returning();
-  for (const tub of tubRows) f.tub[tub.label] = tub.id;
-  f.cls = (
-    await db
-      .insert(classes)
-      .values({ schoolId: k!.id, name: '4Q', yearLevel: 4, studentCount: 24, devices: 6 })
-      .returning()
-  )[0]!.id;
-  f.farClass = (
-    await db
-      .insert(classes)
-      .values({ schoolId: b!.id, name: 'B4', yearLevel: 4, studentCount: 20 })
-      .returning()
-  )[0]!.id;
+  f.cls = await insertClass(db, kestrel, {
+    name: '4Q',
+    yearLevel: 4,
+    studentCount: 24,
+    devices: 6,
+  });
+  f.farClass = await insertClass(db, banksia, { name: 'B4', yearLevel: 4, studentCount: 20 });
   f.period = (
     await db
       .insert(bellPeriods)
       .values({
-        schoolId: k!.id,
+        schoolId: kestrel,
         position: 3,
         name: 'Period 3',
         startsAt: '11:10',
@@ -124,7 +92,7 @@ before(async () => {
     await db
       .insert(bellPeriods)
       .values({
-        schoolId: b!.id,
+        schoolId: banksia,
         position: 1,
         name: 'Period 1',
         startsAt: '09:00',

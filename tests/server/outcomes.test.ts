@@ -5,24 +5,24 @@
 import { after, before, describe, it } from 'node:test';
 import assert from 'node:assert/strict';
 import { eq } from 'drizzle-orm';
-import { Browser, signedIn, testApp, type TestApp } from '../support/app.js';
+import { Browser, testApp, type TestApp } from '../support/app.js';
+import {
+  ADMIN,
+  LEAD,
+  OTHER_ADMIN,
+  RELIEF,
+  TEACHER,
+  browsers,
+  type SignIn,
+} from '../support/planning.js';
 import { outcomeFrameworks, outcomes } from '../../server/db/schema/index.js';
 
 let t: TestApp;
-const TEACHER = 'teacher@kestrel-ridge.example';
-const LEAD = 'lead@kestrel-ridge.example';
-const ADMIN = 'admin@kestrel-ridge.example';
-const RELIEF = 'relief@kestrel-ridge.example';
-const OTHER_ADMIN = 'admin@banksia-flat.example';
-
-const browsers = new Map<string, Browser>();
-async function as(email: string): Promise<Browser> {
-  if (!browsers.has(email)) browsers.set(email, await signedIn(t.app, email));
-  return browsers.get(email)!;
-}
+let as: SignIn;
 
 before(async () => {
   t = await testApp();
+  as = browsers(t.app);
 });
 after(async () => {
   await t.close();

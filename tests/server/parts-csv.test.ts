@@ -3,6 +3,7 @@ import assert from 'node:assert/strict';
 import { eq } from 'drizzle-orm';
 import { parse } from 'csv-parse/sync';
 import { Browser, signedIn, testApp, type TestApp } from '../support/app.js';
+import { ADMIN, TEACHER } from '../support/planning.js';
 import { parts } from '../../server/db/schema/index.js';
 import { readPartsCsv, writePartsCsv } from '../../server/csv/index.js';
 
@@ -14,8 +15,6 @@ after(async () => {
   await t.close();
 });
 
-const ADMIN = 'admin@kestrel-ridge.example';
-const TEACHER = 'teacher@kestrel-ridge.example';
 const BOM = '\uFEFF';
 
 async function newKit(b: Browser, name: string): Promise<string> {

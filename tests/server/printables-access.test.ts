@@ -8,15 +8,14 @@ import { after, before, describe, it } from 'node:test';
 import assert from 'node:assert/strict';
 import { and, asc, eq } from 'drizzle-orm';
 import { Browser, signedIn, testApp, type TestApp } from '../support/app.js';
+import { insertLesson, insertUnit, schoolIds, userByEmail } from '../support/planning.js';
 import {
   activities,
   classes,
   kitTypes,
   lessons,
   materials,
-  schools,
   units,
-  users,
 } from '../../server/db/schema/index.js';
 import { getDocument } from 'pdfjs-dist/legacy/build/pdf.mjs';
 import { closePdfPool } from '../../server/pdf/pool.js';
@@ -60,50 +59,35 @@ before(async () => {
     .where(eq(lessons.unitId, unitId))
     .orderBy(asc(lessons.position));
   [lesson2, lesson3, lesson4] = [rows[1]!.id, rows[2]!.id, rows[3]!.id];
-  const [relief] = await db
-    .select()
-    .from(users)
-    .where(eq(users.email, 'relief@kestrel-ridge.example'));
+  const relief = await userByEmail(db, 'relief@kestrel-ridge.example');
   assert.equal(
     rows[2]!.reliefTeacherId,
-    relief!.id,
+    relief.id,
     'the demo assigns lesson 3 to the relief teacher',
   );
   assert.equal(rows[1]!.reliefTeacherId, null);
   // A unit and lesson of the other school, shared with that school.
-  const [banksia] = await db.select().from(schools).where(eq(schools.name, 'Banksia Flat School'));
-  const [bAdmin] = await db
-    .select()
-    .from(users)
-    .where(eq(users.email, 'admin@banksia-flat.example'));
-  const [bKit] = await db.select().from(kitTypes).where(eq(kitTypes.schoolId, banksia!.id));
-  const [bClass] = await db.select().from(classes).where(eq(classes.schoolId, banksia!.id));
-  const [bUnit] = await db
-    .insert(units)
-    .values({
-      schoolId: banksia!.id,
-      ownerId: bAdmin!.id,
-      title: 'Banksia unit',
-      yearLevel: 3,
-      visibility: 'school',
-    })
-    .returning();
-  otherUnit = bUnit!.id;
-  const [bLesson] = await db
-    .insert(lessons)
-    .values({
-      schoolId: banksia!.id,
-      unitId: otherUnit,
-      position: 0,
-      title: 'Banksia lesson',
-      classId: bClass!.id,
-      kitTypeId: bKit!.id,
-      startsAt: '2026-07-28 09:00:00',
-      endsAt: '2026-07-28 09:50:00',
-      groupSize: 4,
-    })
-    .returning();
-  otherLesson = bLesson!.id;
+  const { banksia } = await schoolIds(db);
+  const bAdmin = await userByEmail(db, 'admin@banksia-flat.example');
+  const [bKit] = await db.select().from(kitTypes).where(eq(kitTypes.schoolId, banksia));
+  const [bClass] = await db.select().from(classes).where(eq(classes.schoolId, banksia));
+  otherUnit = await insertUnit(db, {
+    schoolId: banksia,
+    ownerId: bAdmin.id,
+    title: 'Banksia unit',
+    yearLevel: 3,
+    visibility: 'school',
+  });
+  otherLesson = await insertLesson(db, {
+    schoolId: banksia,
+    unitId: otherUnit,
+    title: 'Banksia lesson',
+    classId: bClass!.id,
+    kitTypeId: bKit!.id,
+    startsAt: '2026-07-28 09:00:00',
+    endsAt: '2026-07-28 09:50:00',
+    groupSize: 4,
+  });
 });
 after(async () => {
   await closePdfPool();

@@ -9,6 +9,7 @@ import { and, eq } from 'drizzle-orm';
 import jsQRModule from 'jsqr';
 import { getDocument, type PDFDocumentProxy } from 'pdfjs-dist/legacy/build/pdf.mjs';
 import { signedIn, testApp, type Browser, type TestApp } from '../support/app.js';
+import { download } from '../support/planning.js';
 import { lessons, schools, units } from '../../server/db/schema/index.js';
 import { closePdfPool } from '../../server/pdf/pool.js';
 import { labelGrid } from '../../server/pdf/labels.js';
@@ -42,17 +43,6 @@ async function renderPage(doc: PDFDocumentProxy, n: number): Promise<Canvas2d> {
   const { canvas, context } = factory.create(viewport.width, viewport.height);
   await page.render({ canvasContext: context as never, canvas: canvas as never, viewport }).promise;
   return context;
-}
-
-async function download(b: Browser, url: string) {
-  return b.agent
-    .get(url)
-    .buffer(true)
-    .parse((res, done) => {
-      const chunks: Buffer[] = [];
-      res.on('data', (c: Buffer) => chunks.push(c));
-      res.on('end', () => done(null, Buffer.concat(chunks)));
-    });
 }
 
 async function pageTexts(

@@ -10,6 +10,7 @@ import assert from 'node:assert/strict';
 import { readdirSync, readFileSync } from 'node:fs';
 import { eq } from 'drizzle-orm';
 import { Browser, signedIn, testApp, type TestApp } from '../support/app.js';
+import { download } from '../support/planning.js';
 import { units } from '../../server/db/schema/index.js';
 import {
   closePdfPool,
@@ -24,17 +25,6 @@ const HEALTH_BOUND_MS = 250;
 let t: TestApp;
 let teacher: Browser;
 let unitId = '';
-
-async function download(b: Browser, url: string) {
-  return b.agent
-    .get(url)
-    .buffer(true)
-    .parse((res, done) => {
-      const chunks: Buffer[] = [];
-      res.on('data', (c: Buffer) => chunks.push(c));
-      res.on('end', () => done(null, Buffer.concat(chunks)));
-    });
-}
 
 async function until(condition: () => boolean, timeoutMs: number): Promise<void> {
   const end = Date.now() + timeoutMs;

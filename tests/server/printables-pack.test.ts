@@ -9,6 +9,7 @@ import assert from 'node:assert/strict';
 import { and, asc, eq } from 'drizzle-orm';
 import { getDocument, OPS } from 'pdfjs-dist/legacy/build/pdf.mjs';
 import { signedIn, testApp, type Browser, type TestApp } from '../support/app.js';
+import { download } from '../support/planning.js';
 import { lessons, schools, units } from '../../server/db/schema/index.js';
 import { closePdfPool } from '../../server/pdf/pool.js';
 import type { PrepPlan } from '../../shared/prep/index.js';
@@ -85,17 +86,6 @@ async function readPdf(
   }
   await doc.destroy();
   return { pages, embeddedFonts, missing };
-}
-
-async function download(b: Browser, url: string) {
-  return b.agent
-    .get(url)
-    .buffer(true)
-    .parse((res, done) => {
-      const chunks: Buffer[] = [];
-      res.on('data', (c: Buffer) => chunks.push(c));
-      res.on('end', () => done(null, Buffer.concat(chunks)));
-    });
 }
 
 /** `2026-07-28T11:53:00+09:30` → `11:53 am`, read off the ISO string itself (its local time). */

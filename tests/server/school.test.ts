@@ -2,13 +2,8 @@ import { after, before, describe, it } from 'node:test';
 import assert from 'node:assert/strict';
 import { eq } from 'drizzle-orm';
 import { Browser, signedIn, testApp, type TestApp } from '../support/app.js';
-import {
-  bellPeriods,
-  schools,
-  schoolSettings,
-  terms,
-  users,
-} from '../../server/db/schema/index.js';
+import { ADMIN, OTHER_ADMIN, userByEmail } from '../support/planning.js';
+import { bellPeriods, schools, schoolSettings, terms } from '../../server/db/schema/index.js';
 import { DEFAULT_PREP, isIanaTimeZone } from '../../shared/schemas/school.js';
 import { DEFAULT_PREP_SETTINGS, prepSettingsSchema } from '../../shared/prep/schema.js';
 
@@ -20,13 +15,7 @@ after(async () => {
   await t.close();
 });
 
-const ADMIN = 'admin@kestrel-ridge.example';
-const OTHER_ADMIN = 'admin@banksia-flat.example';
-
-async function schoolIdOf(email: string): Promise<string> {
-  const [u] = await t.database.db.select().from(users).where(eq(users.email, email));
-  return u!.schoolId;
-}
+const schoolIdOf = async (email: string) => (await userByEmail(t.database.db, email)).schoolId;
 
 /** A full settings form: four terms, five periods and two non-teaching days (test values). */
 function form(version: number, extra: Record<string, unknown> = {}) {
@@ -318,10 +307,10 @@ describe('GET /api/school/teachers', () => {
     const teacher = await signedIn(t.app, 'teacher@kestrel-ridge.example');
     const res = await teacher.get('/api/school/teachers');
     assert.equal(res.status, 200, res.text);
-    assert.deepEqual(
-      res.body.teachers.map((x: { email: string }) => x.email).sort(),
-      ['partner@kestrel-ridge.example', 'teacher@kestrel-ridge.example'],
-    );
+    assert.deepEqual(res.body.teachers.map((x: { email: string }) => x.email).sort(), [
+      'partner@kestrel-ridge.example',
+      'teacher@kestrel-ridge.example',
+    ]);
     const relief = await signedIn(t.app, 'relief@kestrel-ridge.example');
     assert.equal((await relief.get('/api/school/teachers')).status, 403);
     assert.equal((await new Browser(t.app).get('/api/school/teachers')).status, 401);

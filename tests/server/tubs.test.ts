@@ -3,15 +3,15 @@ import assert from 'node:assert/strict';
 import { eq } from 'drizzle-orm';
 import { Browser, signedIn, testApp, type TestApp } from '../support/app.js';
 import {
-  classes,
-  lessons,
-  lessonTubs,
-  tubAudits,
-  tubMissing,
-  tubs,
-  units,
-  users,
-} from '../../server/db/schema/index.js';
+  ADMIN,
+  OTHER_ADMIN,
+  RELIEF,
+  TEACHER,
+  insertClass,
+  insertTestLesson,
+  userByEmail,
+} from '../support/planning.js';
+import { tubAudits, tubMissing, tubs } from '../../server/db/schema/index.js';
 
 let t: TestApp;
 before(async () => {
@@ -21,10 +21,6 @@ after(async () => {
   await t.close();
 });
 
-const ADMIN = 'admin@kestrel-ridge.example';
-const TEACHER = 'teacher@kestrel-ridge.example';
-const RELIEF = 'relief@kestrel-ridge.example';
-const OTHER_ADMIN = 'admin@banksia-flat.example';
 const NO_SUCH_ID = '00000000-0000-4000-8000-000000000000';
 
 const PARTS = [
@@ -58,32 +54,24 @@ async function newTub(
 /** A lesson booking the tub, written straight to the database; returns the lesson id. */
 async function lessonBooking(kitTypeId: string, tubId: string, email = TEACHER): Promise<string> {
   const db = t.database.db;
-  const [teacher] = await db.select().from(users).where(eq(users.email, email));
-  const schoolId = teacher!.schoolId;
-  const [cls] = await db
-    .insert(classes)
-    .values({ schoolId, name: `C-${tubId.slice(0, 8)}`, yearLevel: 5, studentCount: 24 })
-    .returning();
-  const [unit] = await db
-    .insert(units)
-    .values({ schoolId, ownerId: teacher!.id, title: 'A test unit', yearLevel: 5 })
-    .returning();
-  const [lesson] = await db
-    .insert(lessons)
-    .values({
-      unitId: unit!.id,
-      schoolId,
-      position: 0,
-      title: 'A test lesson',
-      classId: cls!.id,
+  const teacher = await userByEmail(db, email);
+  const classId = await insertClass(db, teacher.schoolId, {
+    name: `C-${tubId.slice(0, 8)}`,
+    yearLevel: 5,
+    studentCount: 24,
+  });
+  return insertTestLesson(
+    db,
+    teacher,
+    {
+      classId,
       kitTypeId,
+      yearLevel: 5,
       startsAt: '2026-08-04T11:10:00',
       endsAt: '2026-08-04T12:00:00',
-      groupSize: 3,
-    })
-    .returning();
-  await db.insert(lessonTubs).values({ lessonId: lesson!.id, tubId });
-  return lesson!.id;
+    },
+    [tubId],
+  );
 }
 
 describe('tubs: who may do what', () => {

@@ -6,77 +6,62 @@
 import { after, before, describe, it } from 'node:test';
 import assert from 'node:assert/strict';
 import { eq, sql } from 'drizzle-orm';
-import { Browser, signedIn, testApp, type TestApp } from '../support/app.js';
+import { Browser, testApp, type TestApp } from '../support/app.js';
+import {
+  ADMIN,
+  BANKSIA_FLAT,
+  LEAD,
+  OTHER_TEACHER,
+  PARTNER,
+  RELIEF,
+  TEACHER,
+  addTeacher,
+  browsers,
+  insertClass,
+  insertKit,
+  schoolIds,
+  userIds,
+  type SignIn,
+} from '../support/planning.js';
 import {
   activities,
-  classes,
-  kitTypes,
   lessons,
   materials,
   outcomeFrameworks,
   outcomes,
-  parts,
-  schools,
   units,
-  users,
 } from '../../server/db/schema/index.js';
-import { hashPassword } from '../../server/auth/passwords.js';
-import { DEMO_PASSWORD } from '../../server/seed/index.js';
 
 let t: TestApp;
-const TEACHER = 'teacher@kestrel-ridge.example';
-const PARTNER = 'partner@kestrel-ridge.example';
-const LEAD = 'lead@kestrel-ridge.example';
-const ADMIN = 'admin@kestrel-ridge.example';
-const RELIEF = 'relief@kestrel-ridge.example';
-/** A teacher of the other school, added for this file (the demo seed has only its admin there). */
-const OTHER_TEACHER = 'teacher@banksia-flat.example';
-const ids: Record<string, string> = {};
+let as: SignIn;
+let ids: Record<string, string> = {};
 let classId = '';
 let kitTypeId = '';
 let outcomeIds: string[] = [];
 let otherOutcomeId = '';
 
-const browsers = new Map<string, Browser>();
-async function as(email: string): Promise<Browser> {
-  if (!browsers.has(email)) browsers.set(email, await signedIn(t.app, email));
-  return browsers.get(email)!;
-}
 const anonymous = () => new Browser(t.app);
 
 before(async () => {
   t = await testApp();
+  as = browsers(t.app);
   const db = t.database.db;
-  const [kestrel] = await db
-    .select()
-    .from(schools)
-    .where(eq(schools.name, 'Kestrel Ridge Primary School'));
-  const [banksia] = await db.select().from(schools).where(eq(schools.name, 'Banksia Flat School'));
-  await db.insert(users).values({
-    schoolId: banksia!.id,
-    email: OTHER_TEACHER,
-    name: 'Other Teacher',
-    role: 'teacher',
-    status: 'active',
-    passwordHash: await hashPassword(DEMO_PASSWORD),
+  const { kestrel, banksia } = await schoolIds(db);
+  await addTeacher(db, BANKSIA_FLAT, OTHER_TEACHER);
+  ids = await userIds(db);
+  classId = await insertClass(db, kestrel, {
+    name: '4Q',
+    yearLevel: 4,
+    studentCount: 24,
+    devices: 6,
   });
-  for (const u of await db.select().from(users)) ids[u.email] = u.id;
-  const [cls] = await db
-    .insert(classes)
-    .values({ schoolId: kestrel!.id, name: '4Q', yearLevel: 4, studentCount: 24, devices: 6 })
-    .returning();
-  classId = cls!.id;
-  const [kit] = await db
-    .insert(kitTypes)
-    .values({ schoolId: kestrel!.id, name: 'Trial Rover Tub' })
-    .returning();
-  kitTypeId = kit!.id;
-  await db
-    .insert(parts)
-    .values({ kitTypeId, position: 1, code: 'TR-010', name: 'Motor', category: 'motor', qty: 2 });
+  kitTypeId = await insertKit(db, kestrel, {
+    name: 'Trial Rover Tub',
+    parts: [{ code: 'TR-010', name: 'Motor', category: 'motor', qty: 2 }],
+  });
   const [fw] = await db
     .insert(outcomeFrameworks)
-    .values({ schoolId: kestrel!.id, name: 'Trial framework' })
+    .values({ schoolId: kestrel, name: 'Trial framework' })
     .returning();
   outcomeIds = (
     await db
@@ -99,7 +84,7 @@ before(async () => {
   ).map((o) => o.id);
   const [ofw] = await db
     .insert(outcomeFrameworks)
-    .values({ schoolId: banksia!.id, name: 'Elsewhere' })
+    .values({ schoolId: banksia, name: 'Elsewhere' })
     .returning();
   const [oo] = await db
     .insert(outcomes)
