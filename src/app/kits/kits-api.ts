@@ -1,6 +1,6 @@
-import { HttpClient, HttpEventType, type HttpEvent } from '@angular/common/http';
+import { HttpClient } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
-import { filter, map, type Observable } from 'rxjs';
+import { map, type Observable } from 'rxjs';
 import * as z from 'zod';
 import {
   kitTypeListSchema,
@@ -23,9 +23,9 @@ import {
   type TubUpdate,
 } from '../../../shared/schemas/kits';
 import { schoolSettingsResponseSchema } from '../../../shared/schemas/school';
-import { AppError, UNEXPECTED_RESPONSE_MESSAGE } from '../errors/app-error';
 import { callerShowsErrors } from '../errors/error-context';
 import { parseWith } from '../errors/parse';
+import { uploadWithProgress } from '../files/transfer';
 
 /** One line of a kit type's replacement list (missing pieces summed over its tubs). */
 export const replacementLineSchema = z.object({
@@ -113,34 +113,10 @@ export class KitsApi {
 
   /** Uploads a parts-list CSV as multipart field `file`, reporting upload progress. */
   importParts(id: string, file: File): Observable<ImportProgress> {
-    const form = new FormData();
-    form.append('file', file, file.name);
-    return this.http
-      .post(`/api/kit-types/${encodeURIComponent(id)}/parts/import`, form, {
-        reportProgress: true,
-        observe: 'events',
-        context: callerShowsErrors(),
-      })
-      .pipe(
-        filter(
-          (e: HttpEvent<unknown>) =>
-            e.type === HttpEventType.UploadProgress || e.type === HttpEventType.Response,
-        ),
-        map((e): ImportProgress => {
-          if (e.type === HttpEventType.UploadProgress) {
-            return {
-              kind: 'progress',
-              percent: e.total ? Math.round((100 * e.loaded) / e.total) : null,
-            };
-          }
-          if (e.type !== HttpEventType.Response) throw new Error('unreachable');
-          const result = partsImportResultSchema.safeParse(e.body);
-          if (!result.success) {
-            throw new AppError(0, 'unexpected-response', UNEXPECTED_RESPONSE_MESSAGE);
-          }
-          return { kind: 'done', imported: result.data.imported };
-        }),
-      );
+    const url = `/api/kit-types/${encodeURIComponent(id)}/parts/import`;
+    return uploadWithProgress(this.http, 'POST', url, file, partsImportResultSchema).pipe(
+      map((e) => (e.kind === 'done' ? { kind: 'done', imported: e.body.imported } : e)),
+    );
   }
 
   /** Where a part's photo is served (the `<img>` source). */
@@ -150,34 +126,13 @@ export class KitsApi {
 
   /** Uploads a part's photo as multipart field `file`, reporting upload progress. */
   uploadPhoto(id: string, code: string, file: File): Observable<PhotoProgress> {
-    const form = new FormData();
-    form.append('file', file, file.name);
-    return this.http
-      .put(this.photoUrl(id, code), form, {
-        reportProgress: true,
-        observe: 'events',
-        context: callerShowsErrors(),
-      })
-      .pipe(
-        filter(
-          (e: HttpEvent<unknown>) =>
-            e.type === HttpEventType.UploadProgress || e.type === HttpEventType.Response,
-        ),
-        map((e): PhotoProgress => {
-          if (e.type === HttpEventType.UploadProgress) {
-            return {
-              kind: 'progress',
-              percent: e.total ? Math.round((100 * e.loaded) / e.total) : null,
-            };
-          }
-          if (e.type !== HttpEventType.Response) throw new Error('unreachable');
-          const result = photoResultSchema.safeParse(e.body);
-          if (!result.success) {
-            throw new AppError(0, 'unexpected-response', UNEXPECTED_RESPONSE_MESSAGE);
-          }
-          return { kind: 'done', part: result.data.part };
-        }),
-      );
+    return uploadWithProgress(
+      this.http,
+      'PUT',
+      this.photoUrl(id, code),
+      file,
+      photoResultSchema,
+    ).pipe(map((e) => (e.kind === 'done' ? { kind: 'done', part: e.body.part } : e)));
   }
 
   /** The photo cell shows this request's errors itself. */

@@ -1,7 +1,7 @@
 import * as z from 'zod';
-import { HttpClient, HttpEventType, type HttpEvent } from '@angular/common/http';
+import { HttpClient } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
-import { filter, map, type Observable } from 'rxjs';
+import { map, type Observable } from 'rxjs';
 import { classListSchema, type SchoolClass } from '../../../shared/schemas/classes';
 import {
   kitTypeListSchema,
@@ -24,9 +24,9 @@ import {
   type LessonUpdate,
 } from '../../../shared/schemas/lessons';
 import { schoolSettingsResponseSchema, type BellPeriod } from '../../../shared/schemas/school';
-import { AppError, UNEXPECTED_RESPONSE_MESSAGE } from '../errors/app-error';
 import { callerShowsErrors } from '../errors/error-context';
 import { parseWith } from '../errors/parse';
+import { uploadWithProgress } from '../files/transfer';
 
 /** Progress of an attachment upload (percent, or null when unknown), then the stored file. */
 export type UploadEvent =
@@ -141,33 +141,10 @@ export class LessonFormApi {
 
   /** Uploads one file as multipart field `file`, reporting progress. */
   upload(activityId: string, file: File): Observable<UploadEvent> {
-    const form = new FormData();
-    form.append('file', file, file.name);
-    return this.http
-      .post(`/api/activities/${enc(activityId)}/attachments`, form, {
-        reportProgress: true,
-        observe: 'events',
-        context: callerShowsErrors(),
-      })
-      .pipe(
-        filter(
-          (e: HttpEvent<unknown>) =>
-            e.type === HttpEventType.UploadProgress || e.type === HttpEventType.Response,
-        ),
-        map((e): UploadEvent => {
-          if (e.type === HttpEventType.UploadProgress) {
-            return {
-              kind: 'progress',
-              percent: e.total ? Math.round((100 * e.loaded) / e.total) : null,
-            };
-          }
-          const parsed = attachmentSchema.safeParse(e.type === HttpEventType.Response && e.body);
-          if (!parsed.success) {
-            throw new AppError(0, 'unexpected-response', UNEXPECTED_RESPONSE_MESSAGE);
-          }
-          return { kind: 'done', attachment: parsed.data };
-        }),
-      );
+    const url = `/api/activities/${enc(activityId)}/attachments`;
+    return uploadWithProgress(this.http, 'POST', url, file, attachmentSchema).pipe(
+      map((e) => (e.kind === 'done' ? { kind: 'done', attachment: e.body } : e)),
+    );
   }
 
   deleteAttachment(id: string): Observable<void> {

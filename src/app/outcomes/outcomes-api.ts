@@ -1,6 +1,6 @@
-import { HttpClient, HttpEventType, type HttpEvent } from '@angular/common/http';
+import { HttpClient } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
-import { filter, map, type Observable } from 'rxjs';
+import { map, type Observable } from 'rxjs';
 import {
   frameworkListSchema,
   frameworkSchema,
@@ -10,9 +10,9 @@ import {
   type OutcomeImportResult,
   type Outcome,
 } from '../../../shared/schemas/outcomes';
-import { AppError, UNEXPECTED_RESPONSE_MESSAGE } from '../errors/app-error';
 import { callerShowsErrors } from '../errors/error-context';
 import { parseWith } from '../errors/parse';
+import { uploadWithProgress } from '../files/transfer';
 
 /** What the outcomes browser asks for; blank parts are left out of the query. */
 export interface OutcomeSearch {
@@ -54,33 +54,9 @@ export class OutcomesApi {
 
   /** Uploads an outcomes CSV as multipart field `file`, reporting upload progress. */
   importOutcomes(frameworkId: string, file: File): Observable<OutcomeImportProgress> {
-    const form = new FormData();
-    form.append('file', file, file.name);
-    return this.http
-      .post(`/api/outcomes/frameworks/${encodeURIComponent(frameworkId)}/import`, form, {
-        reportProgress: true,
-        observe: 'events',
-        context: callerShowsErrors(),
-      })
-      .pipe(
-        filter(
-          (e: HttpEvent<unknown>) =>
-            e.type === HttpEventType.UploadProgress || e.type === HttpEventType.Response,
-        ),
-        map((e): OutcomeImportProgress => {
-          if (e.type === HttpEventType.UploadProgress) {
-            return {
-              kind: 'progress',
-              percent: e.total ? Math.round((100 * e.loaded) / e.total) : null,
-            };
-          }
-          if (e.type !== HttpEventType.Response) throw new Error('unreachable');
-          const result = outcomeImportResultSchema.safeParse(e.body);
-          if (!result.success) {
-            throw new AppError(0, 'unexpected-response', UNEXPECTED_RESPONSE_MESSAGE);
-          }
-          return { kind: 'done', result: result.data };
-        }),
-      );
+    const url = `/api/outcomes/frameworks/${encodeURIComponent(frameworkId)}/import`;
+    return uploadWithProgress(this.http, 'POST', url, file, outcomeImportResultSchema).pipe(
+      map((e) => (e.kind === 'done' ? { kind: 'done', result: e.body } : e)),
+    );
   }
 }

@@ -3,7 +3,7 @@ import { Injectable, inject } from '@angular/core';
 import type { Observable } from 'rxjs';
 import * as z from 'zod';
 import { parseWith } from '../errors/parse';
-import { downloadWithProgress, type DownloadEvent } from '../lessons/lessons-api';
+import { downloadWithProgress, type DownloadEvent } from '../files/transfer';
 
 export const reliefLessonSchema = z.object({
   id: z.string(),

@@ -6,7 +6,7 @@ import { MatCardModule } from '@angular/material/card';
 import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { clockTime, dayLabel } from '../lessons/clock';
-import { saveBlob } from '../lessons/lessons-api';
+import { saveBlob } from '../files/transfer';
 import { ReliefApi, type ReliefLesson } from './relief-api';
 
 /** A relief teacher's page: each assigned lesson with its notes, a link and its lesson pack. */

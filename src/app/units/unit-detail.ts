@@ -6,7 +6,7 @@ import { RouterLink } from '@angular/router';
 import { MarkdownComponent } from 'ngx-markdown';
 import { UNIT_STATUS_LABELS, type Unit } from '../../../shared/schemas/units';
 import { clockTime, dayLabel } from '../lessons/clock';
-import { saveBlob } from '../lessons/lessons-api';
+import { saveBlob } from '../files/transfer';
 import { yearLabel } from './labels';
 import { UnitsApi, type UnitPrintable } from './units-api';
 

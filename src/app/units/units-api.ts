@@ -19,7 +19,7 @@ import {
   type UnitSummary,
   type UnitUpdate,
 } from '../../../shared/schemas/units';
-import { downloadWithProgress, type DownloadEvent } from '../lessons/lessons-api';
+import { downloadWithProgress, type DownloadEvent } from '../files/transfer';
 import { callerShowsErrors } from '../errors/error-context';
 import { parseWith } from '../errors/parse';
 
