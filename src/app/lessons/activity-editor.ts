@@ -30,6 +30,8 @@ import {
 import { requiredText, wholeNumber } from '../../../shared/schemas/units';
 import { AppError } from '../errors/app-error';
 import { Notifier } from '../errors/notifier';
+import { confirm } from '../forms/confirm-dialog';
+import { MatDialog } from '@angular/material/dialog';
 import { FieldErrorPipe } from '../forms/field-error';
 import { formErrorMessage } from '../forms/server-errors';
 import { zodValidator } from '../forms/validators';
@@ -84,6 +86,7 @@ export function uploadMessage(error: unknown): string {
 export class ActivityEditor {
   private readonly api = inject(LessonFormApi);
   private readonly notifier = inject(Notifier);
+  private readonly dialog = inject(MatDialog);
 
   readonly lessonId = input.required<string>();
   /** The activity to edit, or null to add a new one at the end of the lesson. */
@@ -241,9 +244,18 @@ export class ActivityEditor {
   protected remove(): void {
     const activity = this.base;
     if (!activity) return this.closed.emit();
-    if (!confirm(`Delete the activity “${activity.title}” and its materials and attachments?`)) {
-      return;
-    }
+    confirm(this.dialog, {
+      title: 'Delete this activity?',
+      message: `“${activity.title}” is deleted with its materials and attachments.`,
+      confirm: 'Delete activity',
+      cancel: 'Keep it',
+      danger: true,
+    }).subscribe((yes) => {
+      if (yes) this.deleteActivity(activity);
+    });
+  }
+
+  private deleteActivity(activity: Activity): void {
     this.api.deleteActivity(activity.id, activity.version).subscribe({
       next: () => {
         this.form.markAsPristine();
@@ -295,7 +307,18 @@ export class ActivityEditor {
   }
 
   protected removeAttachment(a: Attachment): void {
-    if (!confirm(`Remove the attachment “${a.filename}”?`)) return;
+    confirm(this.dialog, {
+      title: 'Remove this attachment?',
+      message: `“${a.filename}” is removed from the activity.`,
+      confirm: 'Remove',
+      cancel: 'Keep it',
+      danger: true,
+    }).subscribe((yes) => {
+      if (yes) this.deleteAttachment(a);
+    });
+  }
+
+  private deleteAttachment(a: Attachment): void {
     this.api.deleteAttachment(a.id).subscribe({
       next: () => this.attachments.update((list) => list.filter((x) => x.id !== a.id)),
       error: (error: unknown) =>

@@ -56,7 +56,7 @@ import {
   SERVER_PATHS,
 } from './lesson-form';
 import { LessonFormApi, type ReliefTeacher } from './lesson-form-api';
-import type { HasUnsavedChanges } from './unsaved-changes';
+import type { HasUnsavedChanges } from '../forms/unsaved-changes';
 
 /** A stale save: the lesson as it is now, and the change that was not saved. */
 interface Conflict {

@@ -1,5 +1,5 @@
 import type { Routes } from '@angular/router';
-import { unsavedChangesGuard } from './unsaved-changes';
+import { unsavedChangesGuard } from '../forms/unsaved-changes';
 
 /**
  * A lesson and its prep plan (`/lessons/:id`, optional `?group=N`); a new lesson

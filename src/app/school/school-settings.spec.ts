@@ -13,7 +13,7 @@ import { firstValueFrom, isObservable, type Observable } from 'rxjs';
 import { DEFAULT_PREP, type SchoolSettings } from '../../../shared/schemas/school';
 import { testProviders } from '../testing/test-providers';
 import { SchoolSettingsPage } from './school-settings';
-import { unsavedChangesGuard } from './unsaved-changes';
+import { unsavedChangesGuard } from '../forms/unsaved-changes';
 
 const TERM_ID = '0b6f8c8e-64b5-4e44-9d5e-7f6b1c2a3d41';
 const PERIOD_ID = '5d0a4c3e-1f2b-4a6c-8e9d-0a1b2c3d4e5f';
@@ -276,7 +276,7 @@ describe('SchoolSettingsPage', () => {
     const root = TestbedHarnessEnvironment.documentRootLoader(fixture);
     const dialog = await root.getHarness(MatDialogHarness);
     expect(await dialog.getTitleText()).toBe('Leave without saving?');
-    await (await dialog.getHarness(MatButtonHarness.with({ text: 'Stay on this page' }))).click();
+    await (await dialog.getHarness(MatButtonHarness.with({ text: 'Stay and keep editing' }))).click();
     expect(await stay).toBeFalse();
     // Karma itself listens for a real beforeunload, so the handler is called directly.
     const event = jasmine.createSpyObj<BeforeUnloadEvent>('event', ['preventDefault']);

@@ -39,7 +39,7 @@ import {
   type SettingsBody,
   type SettingsRaw,
 } from './settings-model';
-import type { HasUnsavedChanges } from './unsaved-changes';
+import type { HasUnsavedChanges } from '../forms/unsaved-changes';
 
 /** A save the server refused because someone else saved first. */
 interface StaleSave {

@@ -1,6 +1,6 @@
 import type { Routes } from '@angular/router';
 import { SchoolSettingsPage } from './school-settings';
-import { unsavedChangesGuard } from './unsaved-changes';
+import { unsavedChangesGuard } from '../forms/unsaved-changes';
 
 /** The School area: the settings, calendar and prep allowances (admins). */
 export const SCHOOL_ROUTES: Routes = [

@@ -14,7 +14,7 @@ import { firstValueFrom, isObservable, of } from 'rxjs';
 import type { Unit, UnitLesson } from '../../../shared/schemas/units';
 import { Blank, errorBody, testProviders } from '../testing/test-providers';
 import { UnitEditor } from './unit-editor';
-import { unsavedChangesGuard } from './unsaved-changes';
+import { unsavedChangesGuard } from '../forms/unsaved-changes';
 
 /** An invented unit of the invented demo school. */
 function unit(overrides: Partial<Unit> = {}): Unit {

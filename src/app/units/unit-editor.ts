@@ -48,7 +48,7 @@ import { FieldErrorPipe } from '../forms/field-error';
 import { formErrorMessage } from '../forms/server-errors';
 import { zodValidator } from '../forms/validators';
 import { clockTime, dayLabel } from '../lessons/clock';
-import { confirm } from './confirm-dialog';
+import { confirm } from '../forms/confirm-dialog';
 import { TERMS, YEAR_LEVELS, yearLabel } from './labels';
 import { OutcomePicker } from './outcome-picker';
 import {
@@ -59,7 +59,7 @@ import {
   type UnitDraft,
 } from './unit-changes';
 import { UnitsApi } from './units-api';
-import type { HasUnsavedChanges } from './unsaved-changes';
+import type { HasUnsavedChanges } from '../forms/unsaved-changes';
 
 const outcomeIdsSchema = distinctIds(300, 'outcomes');
 

@@ -1,5 +1,5 @@
 import type { Routes } from '@angular/router';
-import { unsavedChangesGuard } from './unsaved-changes';
+import { unsavedChangesGuard } from '../forms/unsaved-changes';
 
 /** The Units area: the tables, a new unit, a unit's page and its editor. */
 export const UNITS_ROUTES: Routes = [
