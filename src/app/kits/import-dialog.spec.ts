@@ -1,3 +1,5 @@
+import { By } from '@angular/platform-browser';
+import { CsvImport } from '../files/csv-import';
 import type { HarnessLoader } from '@angular/cdk/testing';
 import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
 import { HttpEventType } from '@angular/common/http';
@@ -41,8 +43,14 @@ describe('ImportDialog', () => {
 
   afterEach(() => backend.verify());
 
+  /** The dialog's shared CSV upload body (its file picker is a hidden input). */
+  function csvImport(): CsvImport<unknown> {
+    return fixture.debugElement.query(By.directive(CsvImport))
+      .componentInstance as CsvImport<unknown>;
+  }
+
   async function chooseAndImport(file: File): Promise<void> {
-    fixture.componentInstance.pick([file]);
+    csvImport().pick([file]);
     fixture.detectChanges();
     await (await loader.getHarness(MatButtonHarness.with({ text: 'Import' }))).click();
   }
@@ -123,7 +131,7 @@ describe('ImportDialog', () => {
 
   it('refuses a file over the 2 MB limit before sending it', async () => {
     const big = new File([new Uint8Array(MAX_CSV_BYTES + 1)], 'huge.csv', { type: 'text/csv' });
-    fixture.componentInstance.pick([big]);
+    csvImport().pick([big]);
     fixture.detectChanges();
     expect(fixture.nativeElement.textContent).toContain('larger than 2 MB');
     expect(

@@ -25,7 +25,7 @@ import {
 import { schoolSettingsResponseSchema } from '../../../shared/schemas/school';
 import { callerShowsErrors } from '../errors/error-context';
 import { parseWith } from '../errors/parse';
-import { uploadWithProgress } from '../files/transfer';
+import { uploadWithProgress, type UploadEvent } from '../files/transfer';
 
 /** One line of a kit type's replacement list (missing pieces summed over its tubs). */
 export const replacementLineSchema = z.object({
@@ -49,9 +49,6 @@ export type Conflicts = z.infer<typeof conflictsSchema>;
 /** The fields of a part the inline editor may change. */
 export type PartChange = Partial<Omit<Part, 'id' | 'hasPhoto'>>;
 
-/** Progress of a CSV upload, then its result. */
-export type ImportProgress =
-  { kind: 'progress'; percent: number | null } | { kind: 'done'; imported: number };
 
 /** Progress of a part photo upload, then the part as saved (with `hasPhoto`). */
 export type PhotoProgress =
@@ -112,11 +109,9 @@ export class KitsApi {
   }
 
   /** Uploads a parts-list CSV as multipart field `file`, reporting upload progress. */
-  importParts(id: string, file: File): Observable<ImportProgress> {
+  importParts(id: string, file: File): Observable<UploadEvent<{ imported: number }>> {
     const url = `/api/kit-types/${encodeURIComponent(id)}/parts/import`;
-    return uploadWithProgress(this.http, 'POST', url, file, partsImportResultSchema).pipe(
-      map((e) => (e.kind === 'done' ? { kind: 'done', imported: e.body.imported } : e)),
-    );
+    return uploadWithProgress(this.http, 'POST', url, file, partsImportResultSchema);
   }
 
   /** Where a part's photo is served (the `<img>` source). */

@@ -12,7 +12,7 @@ import {
 } from '../../../shared/schemas/outcomes';
 import { callerShowsErrors } from '../errors/error-context';
 import { parseWith } from '../errors/parse';
-import { uploadWithProgress } from '../files/transfer';
+import { uploadWithProgress, type UploadEvent } from '../files/transfer';
 
 /** What the outcomes browser asks for; blank parts are left out of the query. */
 export interface OutcomeSearch {
@@ -20,10 +20,6 @@ export interface OutcomeSearch {
   q: string;
   yearBand: string;
 }
-
-/** Progress of an outcomes CSV upload, then its result. */
-export type OutcomeImportProgress =
-  { kind: 'progress'; percent: number | null } | { kind: 'done'; result: OutcomeImportResult };
 
 /** Outcomes frameworks and their outcomes (`/api/outcomes`). */
 @Injectable({ providedIn: 'root' })
@@ -53,10 +49,8 @@ export class OutcomesApi {
   }
 
   /** Uploads an outcomes CSV as multipart field `file`, reporting upload progress. */
-  importOutcomes(frameworkId: string, file: File): Observable<OutcomeImportProgress> {
+  importOutcomes(frameworkId: string, file: File): Observable<UploadEvent<OutcomeImportResult>> {
     const url = `/api/outcomes/frameworks/${encodeURIComponent(frameworkId)}/import`;
-    return uploadWithProgress(this.http, 'POST', url, file, outcomeImportResultSchema).pipe(
-      map((e) => (e.kind === 'done' ? { kind: 'done', result: e.body } : e)),
-    );
+    return uploadWithProgress(this.http, 'POST', url, file, outcomeImportResultSchema);
   }
 }
