@@ -5,5 +5,7 @@ export default defineConfig({
   schema: './server/db/schema',
   out: './migrations',
   casing: 'snake_case',
-  dbCredentials: { url: process.env.DATABASE_URL ?? 'postgres://trayplan@127.0.0.1:54329/trayplan' },
+  dbCredentials: {
+    url: process.env.DATABASE_URL ?? 'postgres://trayplan@127.0.0.1:54329/trayplan',
+  },
 });

@@ -88,7 +88,10 @@ function client(dir: string): express.Router {
   router.use(express.static(dir, { index: false, maxAge: '1h' }));
   const sendIndex: RequestHandler = (_req, res) => {
     if (!existsSync(indexFile)) {
-      res.status(503).type('text/plain').send('The client is not built yet. Run npm start or npm run build.');
+      res
+        .status(503)
+        .type('text/plain')
+        .send('The client is not built yet. Run npm start or npm run build.');
       return;
     }
     const nonce = res.locals.cspNonce as string;
@@ -115,7 +118,10 @@ export function createApp(ctx: AppContext, options: AppOptions = {}): Express {
         directives: {
           defaultSrc: ["'self'"],
           scriptSrc: ["'self'"],
-          styleSrc: ["'self'", (_req, res) => `'nonce-${(res as express.Response).locals.cspNonce}'`],
+          styleSrc: [
+            "'self'",
+            (_req, res) => `'nonce-${(res as express.Response).locals.cspNonce}'`,
+          ],
           fontSrc: ["'self'"],
           imgSrc: ["'self'", 'data:', 'blob:'],
           connectSrc: ["'self'"],

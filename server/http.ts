@@ -22,7 +22,10 @@ export const forbidden = (message = 'Your role does not allow this.') =>
 
 /** Turns zod issues into the API's details list. */
 export function issuesToDetails(issues: z.core.$ZodIssue[]): ApiErrorDetail[] {
-  return issues.map((issue) => ({ path: issue.path.map(String).join('.'), message: issue.message }));
+  return issues.map((issue) => ({
+    path: issue.path.map(String).join('.'),
+    message: issue.message,
+  }));
 }
 
 /** Parses with a zod schema; a failure is a 400 listing every issue. */
@@ -47,7 +50,9 @@ export function parseParams<T extends ZodType>(schema: T, req: Request): z.infer
 }
 
 export const jsonNotFound: RequestHandler = (_req, res) => {
-  res.status(404).json({ error: { code: 'not-found', message: 'There is nothing at this address.' } });
+  res
+    .status(404)
+    .json({ error: { code: 'not-found', message: 'There is nothing at this address.' } });
 };
 
 /** The last middleware: one error shape, never a stack trace. */
@@ -66,9 +71,16 @@ export const errorHandler: ErrorRequestHandler = (err, _req, res, next) => {
     });
     return;
   }
-  const status = typeof err?.status === 'number' ? err.status : typeof err?.statusCode === 'number' ? err.statusCode : 500;
+  const status =
+    typeof err?.status === 'number'
+      ? err.status
+      : typeof err?.statusCode === 'number'
+        ? err.statusCode
+        : 500;
   if (err?.type === 'entity.parse.failed') {
-    res.status(400).json({ error: { code: 'invalid-json', message: 'The request body is not valid JSON.' } });
+    res
+      .status(400)
+      .json({ error: { code: 'invalid-json', message: 'The request body is not valid JSON.' } });
     return;
   }
   if (err?.type === 'entity.too.large' || err?.code === 'LIMIT_FILE_SIZE') {
@@ -76,9 +88,13 @@ export const errorHandler: ErrorRequestHandler = (err, _req, res, next) => {
     return;
   }
   if (status >= 400 && status < 500) {
-    res.status(status).json({ error: { code: 'bad-request', message: 'The request could not be read.' } });
+    res
+      .status(status)
+      .json({ error: { code: 'bad-request', message: 'The request could not be read.' } });
     return;
   }
   console.error('Unexpected error:', err);
-  res.status(500).json({ error: { code: 'internal', message: 'Something went wrong on the server.' } });
+  res
+    .status(500)
+    .json({ error: { code: 'internal', message: 'Something went wrong on the server.' } });
 };

@@ -28,7 +28,11 @@ export async function serve(
   }
   const database = openDatabase(config.databaseUrl, 20);
   await runMigrations(database.db);
-  const outbox = startOutboxWorker(database.db, createMailTransport(config.smtpUrl), config.mailFrom);
+  const outbox = startOutboxWorker(
+    database.db,
+    createMailTransport(config.smtpUrl),
+    config.mailFrom,
+  );
   const app = createApp({
     db: database.db,
     pool: database.pool,
@@ -61,7 +65,10 @@ export async function serve(
 }
 
 /** Stops cleanly on SIGINT and SIGTERM, then runs `after` (stopping the cluster, say). */
-export function stopOnSignals(running: Running, after: () => Promise<void> | void = () => {}): void {
+export function stopOnSignals(
+  running: Running,
+  after: () => Promise<void> | void = () => {},
+): void {
   let stopping = false;
   const stop = async (signal: string) => {
     if (stopping) return;
@@ -81,6 +88,8 @@ export function stopOnSignals(running: Running, after: () => Promise<void> | voi
 const isEntry = import.meta.url === `file://${process.argv[1]}`;
 if (isEntry) {
   const running = await serve(loadConfig());
-  console.log(`Trayplan listening on http://${running.server.address() && loadConfig().host}:${loadConfig().port}`);
+  console.log(
+    `Trayplan listening on http://${running.server.address() && loadConfig().host}:${loadConfig().port}`,
+  );
   stopOnSignals(running);
 }

@@ -9,7 +9,12 @@ import { existsSync, readdirSync, statSync } from 'node:fs';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { loadConfig } from './config.js';
-import { clusterIsRunning, ensureDatabase, startCluster, type RunningCluster } from './db/cluster.js';
+import {
+  clusterIsRunning,
+  ensureDatabase,
+  startCluster,
+  type RunningCluster,
+} from './db/cluster.js';
 import { openDatabase, runMigrations } from './db/client.js';
 import { seedDemo, DEMO_ACCOUNTS, DEMO_PASSWORD } from './seed/index.js';
 import { startFakeSmtp, type FakeSmtp } from './mail/fake-smtp.js';
@@ -36,7 +41,9 @@ function newest(paths: string[]): number {
 /** Builds the client when its build is missing or older than its sources. */
 export function buildClientIfStale(): void {
   const index = path.join(clientDir, 'index.html');
-  const sources = ['src', 'shared', 'angular.json', 'package-lock.json'].map((p) => path.join(root, p));
+  const sources = ['src', 'shared', 'angular.json', 'package-lock.json'].map((p) =>
+    path.join(root, p),
+  );
   if (existsSync(index) && statSync(index).mtimeMs >= newest(sources)) return;
   console.log('Building the client (about half a minute)…');
   const res = spawnSync(path.join(root, 'node_modules/.bin/ng'), ['build'], {
@@ -56,7 +63,9 @@ async function main(): Promise<void> {
     if (clusterIsRunning(dataDir)) {
       throw new Error(`PostgreSQL already runs from ${dataDir}: is another "npm start" running?`);
     }
-    console.log(`Starting PostgreSQL on 127.0.0.1:${port} (data in ${path.relative(root, dataDir)})…`);
+    console.log(
+      `Starting PostgreSQL on 127.0.0.1:${port} (data in ${path.relative(root, dataDir)})…`,
+    );
     cluster = startCluster({ dataDir, port, durable: true });
     await ensureDatabase(cluster, 'trayplan');
     databaseUrl = cluster.url('trayplan');
@@ -79,7 +88,10 @@ async function main(): Promise<void> {
     const config = loadConfig({ databaseUrl, smtpUrl });
     const running = await serve(config, { devMail: fake ? () => fake.messages() : undefined });
     const ng = dev
-      ? spawn(path.join(root, 'node_modules/.bin/ng'), ['serve', '--port', '4200'], { cwd: root, stdio: 'inherit' })
+      ? spawn(path.join(root, 'node_modules/.bin/ng'), ['serve', '--port', '4200'], {
+          cwd: root,
+          stdio: 'inherit',
+        })
       : null;
     stopOnSignals(running, async () => {
       ng?.kill('SIGTERM');
@@ -88,7 +100,10 @@ async function main(): Promise<void> {
     });
     const url = dev ? 'http://127.0.0.1:4200 (API on ' + config.appUrl + ')' : config.appUrl;
     console.log(`\nTrayplan is running at ${url}`);
-    if (fake) console.log(`E-mail goes to the local fake SMTP server (${fake.url}); admins read it under "Mail outbox".`);
+    if (fake)
+      console.log(
+        `E-mail goes to the local fake SMTP server (${fake.url}); admins read it under "Mail outbox".`,
+      );
     console.log(`\nDemo accounts (demo data only), password "${DEMO_PASSWORD}":`);
     for (const a of DEMO_ACCOUNTS) console.log(`  ${a.role.padEnd(8)} ${a.email}`);
     console.log('\nPress Ctrl-C to stop.');

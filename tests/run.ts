@@ -27,15 +27,21 @@ interface SuiteResult {
 function ensureChromium(): void {
   if (existsSync(CHROMIUM)) return;
   if (process.getuid?.() !== 0) {
-    throw new Error('Chromium is missing: install Debian\'s "chromium" package (sudo apt-get install chromium).');
+    throw new Error(
+      'Chromium is missing: install Debian\'s "chromium" package (sudo apt-get install chromium).',
+    );
   }
   console.log('Chromium is missing: installing Debian\'s "chromium" package…');
   const env = { ...process.env, DEBIAN_FRONTEND: 'noninteractive' };
   execFileSync('apt-get', ['update', '-qq'], { stdio: 'inherit', env });
-  execFileSync('apt-get', ['install', '-y', '-qq', '--no-install-recommends', 'chromium', 'fonts-dejavu-core'], {
-    stdio: 'inherit',
-    env,
-  });
+  execFileSync(
+    'apt-get',
+    ['install', '-y', '-qq', '--no-install-recommends', 'chromium', 'fonts-dejavu-core'],
+    {
+      stdio: 'inherit',
+      env,
+    },
+  );
 }
 
 function files(dir: string): string[] {
@@ -48,7 +54,12 @@ function files(dir: string): string[] {
 }
 
 /** Runs a command, echoing its output, and resolves with everything it printed. */
-function run(cmd: string, args: string[], env: NodeJS.ProcessEnv, timeoutMs: number): Promise<{ code: number; out: string }> {
+function run(
+  cmd: string,
+  args: string[],
+  env: NodeJS.ProcessEnv,
+  timeoutMs: number,
+): Promise<{ code: number; out: string }> {
   return new Promise((resolve) => {
     const child = spawn(cmd, args, { cwd: root, env, stdio: ['ignore', 'pipe', 'pipe'] });
     let out = '';
@@ -75,14 +86,22 @@ function nodeCounts(name: string, code: number, out: string): SuiteResult {
   const passed = num('pass');
   const failed = num('fail') + num('cancelled');
   const ok = code === 0 && failed === 0 && passed > 0;
-  return { name, passed, failed: failed || (ok ? 0 : 1), ok, note: passed === 0 ? 'ran no test' : undefined };
+  return {
+    name,
+    passed,
+    failed: failed || (ok ? 0 : 1),
+    ok,
+    note: passed === 0 ? 'ran no test' : undefined,
+  };
 }
 
 /** Counts from the summary line karma.conf.js's own reporter prints (`Karma summary: …`). */
 function karmaCounts(code: number, out: string): SuiteResult {
   // eslint-disable-next-line no-control-regex
   const plain = out.replace(/\u001b\[[0-9;]*m/g, '');
-  const m = /^Karma summary: (\d+) passed, (\d+) failed, (\d+) skipped, error: (yes|no)$/m.exec(plain);
+  const m = /^Karma summary: (\d+) passed, (\d+) failed, (\d+) skipped, error: (yes|no)$/m.exec(
+    plain,
+  );
   const passed = Number(m?.[1] ?? 0);
   const failed = Number(m?.[2] ?? 0);
   const broken = !m || m[4] === 'yes';
@@ -154,7 +173,13 @@ async function main(): Promise<number> {
   };
   const results: SuiteResult[] = [];
   const want = (name: string) => only.length === 0 || only.includes(name);
-  const nodeTest = (list: string[]) => ['--import', 'tsx', '--test', '--test-reporter=spec', ...list];
+  const nodeTest = (list: string[]) => [
+    '--import',
+    'tsx',
+    '--test',
+    '--test-reporter=spec',
+    ...list,
+  ];
   try {
     for (const [name, dir] of [
       ['shared', 'tests/shared'],
@@ -168,7 +193,12 @@ async function main(): Promise<number> {
     }
     if (want('client')) {
       console.log('\n=== client suite (Karma, headless Chromium) ===');
-      const r = await run(path.join(root, 'node_modules/.bin/ng'), ['test', '--watch=false'], env, 10 * 60_000);
+      const r = await run(
+        path.join(root, 'node_modules/.bin/ng'),
+        ['test', '--watch=false'],
+        env,
+        10 * 60_000,
+      );
       results.push(karmaCounts(r.code, r.out));
     }
     if (want('e2e')) {
@@ -177,11 +207,22 @@ async function main(): Promise<number> {
       let app: Awaited<ReturnType<typeof startApp>> | null = null;
       try {
         app = await startApp(await copyDatabase(baseUrl, 'e2e'), env);
-        const r = await run(process.execPath, nodeTest(list), { ...env, TRAYPLAN_E2E_URL: app.url }, 10 * 60_000);
+        const r = await run(
+          process.execPath,
+          nodeTest(list),
+          { ...env, TRAYPLAN_E2E_URL: app.url },
+          10 * 60_000,
+        );
         results.push(nodeCounts('e2e', list.length ? r.code : 1, r.out));
       } catch (err) {
         console.error((err as Error).message);
-        results.push({ name: 'e2e', passed: 0, failed: 1, ok: false, note: 'the app did not start' });
+        results.push({
+          name: 'e2e',
+          passed: 0,
+          failed: 1,
+          ok: false,
+          note: 'the app did not start',
+        });
       } finally {
         if (app) {
           const code = await app.stop();
@@ -199,7 +240,9 @@ async function main(): Promise<number> {
 
   console.log('\n=== summary ===');
   for (const r of results) {
-    console.log(`${r.ok ? 'ok  ' : 'FAIL'} ${r.name}: ${r.passed} passed, ${r.failed} failed${r.note ? ` (${r.note})` : ''}`);
+    console.log(
+      `${r.ok ? 'ok  ' : 'FAIL'} ${r.name}: ${r.passed} passed, ${r.failed} failed${r.note ? ` (${r.note})` : ''}`,
+    );
   }
   const passed = results.reduce((n, r) => n + r.passed, 0);
   const failed = results.reduce((n, r) => n + r.failed, 0);

@@ -33,7 +33,8 @@ export const csrfGuard: RequestHandler = (req, res, next) => {
     res.status(403).json({
       error: {
         code: 'csrf',
-        message: 'This page is out of date or the request did not come from Trayplan. Reload and try again.',
+        message:
+          'This page is out of date or the request did not come from Trayplan. Reload and try again.',
       },
     });
     return;

@@ -39,9 +39,12 @@ const common = new Set(
 /** Why a new password is refused beyond its length (checked by zod), or null when it is fine. */
 export function passwordProblem(password: string, email?: string): string | null {
   const lower = password.toLowerCase();
-  if (common.has(lower)) return 'That password is on a list of commonly used passwords. Choose another.';
-  if (email && lower === email.toLowerCase()) return 'Do not use your e-mail address as the password.';
-  if (/^(.)\1+$/.test(password)) return 'A password of one repeated character is too easy to guess.';
+  if (common.has(lower))
+    return 'That password is on a list of commonly used passwords. Choose another.';
+  if (email && lower === email.toLowerCase())
+    return 'Do not use your e-mail address as the password.';
+  if (/^(.)\1+$/.test(password))
+    return 'A password of one repeated character is too easy to guess.';
   if (lower.includes('trayplan') && lower.replace(/[^a-z]/g, '').length <= 12) {
     return 'A password made from the product name is too easy to guess.';
   }

@@ -92,5 +92,9 @@ export function canReadLesson(
   lesson: { reliefTeacherId: string | null },
 ): boolean {
   if (canReadUnit(actor, unit)) return true;
-  return sameSchool(actor, unit.schoolId) && actor.role === 'relief' && lesson.reliefTeacherId === actor.id;
+  return (
+    sameSchool(actor, unit.schoolId) &&
+    actor.role === 'relief' &&
+    lesson.reliefTeacherId === actor.id
+  );
 }

@@ -107,7 +107,9 @@ export function regenerate(req: Express.Request): Promise<void> {
 }
 
 export function saveSession(req: Express.Request): Promise<void> {
-  return new Promise((resolve, reject) => req.session.save((err) => (err ? reject(err) : resolve())));
+  return new Promise((resolve, reject) =>
+    req.session.save((err) => (err ? reject(err) : resolve())),
+  );
 }
 
 export function destroySession(req: Express.Request): Promise<void> {

@@ -3,7 +3,14 @@
  * Used by the start command (durable, under `.data/`) and by the tests (throwaway, fsync off).
  */
 import { execFileSync, spawnSync } from 'node:child_process';
-import { existsSync, mkdirSync, readdirSync, writeFileSync, appendFileSync, chmodSync } from 'node:fs';
+import {
+  existsSync,
+  mkdirSync,
+  readdirSync,
+  writeFileSync,
+  appendFileSync,
+  chmodSync,
+} from 'node:fs';
 import { createServer } from 'node:net';
 import path from 'node:path';
 
@@ -77,7 +84,9 @@ function makeReachable(dir: string): void {
   while (current !== path.dirname(current)) {
     current = path.dirname(current);
     try {
-      const mode = (spawnSync('stat', ['-c', '%a', current], { encoding: 'utf8' }).stdout ?? '').trim();
+      const mode = (
+        spawnSync('stat', ['-c', '%a', current], { encoding: 'utf8' }).stdout ?? ''
+      ).trim();
       const bits = parseInt(mode, 8);
       if (!Number.isNaN(bits) && (bits & 0o001) === 0) chmodSync(current, bits | 0o001);
     } catch {
@@ -95,9 +104,18 @@ export function startCluster(options: ClusterOptions): RunningCluster {
   if (isRoot) execFileSync('chown', ['-R', 'postgres:postgres', dataDir]);
   if (!existsSync(path.join(dataDir, 'PG_VERSION'))) {
     runTool(bin, 'initdb', [
-      '-D', dataDir, '-U', 'trayplan', '--auth=trust', '--encoding=UTF8', '--locale=C.UTF-8',
+      '-D',
+      dataDir,
+      '-U',
+      'trayplan',
+      '--auth=trust',
+      '--encoding=UTF8',
+      '--locale=C.UTF-8',
     ]);
-    appendFileSync(path.join(dataDir, 'postgresql.conf'), "\ninclude_if_exists = 'trayplan.conf'\n");
+    appendFileSync(
+      path.join(dataDir, 'postgresql.conf'),
+      "\ninclude_if_exists = 'trayplan.conf'\n",
+    );
   }
   // Settings are rewritten on every start so a changed port or durability always applies.
   const socketDir = dataDir.length < 90 ? dataDir : '';
@@ -115,7 +133,16 @@ export function startCluster(options: ClusterOptions): RunningCluster {
     ].join('\n'),
   );
   if (isRoot) execFileSync('chown', ['-R', 'postgres:postgres', dataDir]);
-  runTool(bin, 'pg_ctl', ['-D', dataDir, '-l', path.join(dataDir, 'server.log'), '-w', '-t', '60', 'start']);
+  runTool(bin, 'pg_ctl', [
+    '-D',
+    dataDir,
+    '-l',
+    path.join(dataDir, 'server.log'),
+    '-w',
+    '-t',
+    '60',
+    'start',
+  ]);
   let stopped = false;
   return {
     port: options.port,
@@ -169,4 +196,3 @@ export async function ensureDatabase(cluster: RunningCluster, name: string): Pro
     await client.end();
   }
 }
-

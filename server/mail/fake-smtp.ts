@@ -39,7 +39,11 @@ export async function startFakeSmtp(port = 0): Promise<FakeSmtp> {
       stream.on('data', (c: Buffer) => chunks.push(c));
       stream.on('end', () => {
         if (refusing) {
-          callback(Object.assign(new Error('Mailbox unavailable (simulated outage)'), { responseCode: 451 }));
+          callback(
+            Object.assign(new Error('Mailbox unavailable (simulated outage)'), {
+              responseCode: 451,
+            }),
+          );
           return;
         }
         const source = Buffer.concat(chunks).toString('utf8');

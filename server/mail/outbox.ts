@@ -85,7 +85,12 @@ export function startOutboxWorker(
           });
           await tx
             .update(outbox)
-            .set({ status: 'sent', sentAt: sql`now()`, attempts: row.attempts + 1, lastError: null })
+            .set({
+              status: 'sent',
+              sentAt: sql`now()`,
+              attempts: row.attempts + 1,
+              lastError: null,
+            })
             .where(eq(outbox.id, row.id));
           sent++;
         } catch (err) {

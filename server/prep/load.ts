@@ -6,8 +6,18 @@
 import { and, asc, eq, inArray, lt, ne, sql } from 'drizzle-orm';
 import type { Tx } from '../db/client.js';
 import {
-  activities, classes, lessonTubs, lessons, materials, parts, schoolSettings, schools, tubMissing,
-  tubs, unitCoauthors, units,
+  activities,
+  classes,
+  lessonTubs,
+  lessons,
+  materials,
+  parts,
+  schoolSettings,
+  schools,
+  tubMissing,
+  tubs,
+  unitCoauthors,
+  units,
 } from '../db/schema/index.js';
 import type { PrepInput } from '../../shared/prep/index.js';
 import type { UnitFacts } from '../auth/policy.js';
@@ -89,7 +99,12 @@ export async function loadPrepInput(tx: Tx, lessonId: string): Promise<PrepInput
     .where(eq(parts.kitTypeId, lesson.kitTypeId))
     .orderBy(asc(parts.position));
   const tubRows = await tx
-    .select({ id: tubs.id, label: tubs.label, controllerLabel: tubs.controllerLabel, status: tubs.status })
+    .select({
+      id: tubs.id,
+      label: tubs.label,
+      controllerLabel: tubs.controllerLabel,
+      status: tubs.status,
+    })
     .from(lessonTubs)
     .innerJoin(tubs, eq(tubs.id, lessonTubs.tubId))
     .where(eq(lessonTubs.lessonId, lessonId));
@@ -106,7 +121,12 @@ export async function loadPrepInput(tx: Tx, lessonId: string): Promise<PrepInput
     ? await tx
         .select()
         .from(materials)
-        .where(inArray(materials.activityId, activityRows.map((a) => a.id)))
+        .where(
+          inArray(
+            materials.activityId,
+            activityRows.map((a) => a.id),
+          ),
+        )
         .orderBy(asc(materials.position))
     : [];
 
@@ -166,7 +186,10 @@ export async function loadPrepInput(tx: Tx, lessonId: string): Promise<PrepInput
       controllerLabel: t.controllerLabel,
       status: t.status as 'ready',
       stock: Object.fromEntries(
-        partRows.map((p) => [p.code, Math.max(0, p.qty - (missing.get(`${t.id}\u0000${p.code}`) ?? 0))]),
+        partRows.map((p) => [
+          p.code,
+          Math.max(0, p.qty - (missing.get(`${t.id}\u0000${p.code}`) ?? 0)),
+        ]),
       ),
     })),
     activities: activityRows.map((a) => ({

@@ -36,7 +36,9 @@ export function accountRouter(ctx: AppContext): Router {
     }
     const problem = passwordProblem(body.newPassword, actor.email);
     if (problem) {
-      throw new HttpError(400, 'password-common', problem, [{ path: 'newPassword', message: problem }]);
+      throw new HttpError(400, 'password-common', problem, [
+        { path: 'newPassword', message: problem },
+      ]);
     }
     const passwordHash = await hashPassword(body.newPassword);
     await ctx.db.transaction(async (tx) => {

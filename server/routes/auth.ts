@@ -5,13 +5,22 @@ import type { AppContext } from '../context.js';
 import { passwordResets, users } from '../db/schema/index.js';
 import { HttpError, parse } from '../http.js';
 import { issueCsrf } from '../auth/csrf.js';
-import { dummyPasswordHash, hashPassword, passwordProblem, verifyPassword } from '../auth/passwords.js';
+import {
+  dummyPasswordHash,
+  hashPassword,
+  passwordProblem,
+  verifyPassword,
+} from '../auth/passwords.js';
 import { destroySession, regenerate, requireActor, saveSession } from '../auth/session.js';
 import { endSessionsOf, sessionUser } from '../auth/users.js';
 import { hashToken, newToken, RESET_MINUTES } from '../auth/tokens.js';
 import { enqueueMail } from '../mail/outbox.js';
 import { resetMail } from '../mail/messages.js';
-import { resetCompleteSchema, resetRequestSchema, signInSchema } from '../../shared/schemas/auth.js';
+import {
+  resetCompleteSchema,
+  resetRequestSchema,
+  signInSchema,
+} from '../../shared/schemas/auth.js';
 
 const FIFTEEN_MINUTES = 15 * 60 * 1000;
 
@@ -39,7 +48,10 @@ export async function signInAs(ctx: AppContext, req: Request, res: Response, use
   req.session.userId = userId;
   issueCsrf(req, res, ctx.config.behindHttps);
   await saveSession(req);
-  await ctx.db.update(users).set({ lastSignInAt: sql`now()` }).where(eq(users.id, userId));
+  await ctx.db
+    .update(users)
+    .set({ lastSignInAt: sql`now()` })
+    .where(eq(users.id, userId));
   return sessionUser(ctx.db, userId);
 }
 
@@ -86,7 +98,11 @@ export function authRouter(ctx: AppContext): Router {
       ? (await verifyPassword(user.passwordHash, body.password)) && user.status === 'active'
       : (await verifyPassword(await dummyPasswordHash(), body.password), false);
     if (!user || !ok) {
-      throw new HttpError(401, 'invalid-credentials', "That e-mail and password don't match an account.");
+      throw new HttpError(
+        401,
+        'invalid-credentials',
+        "That e-mail and password don't match an account.",
+      );
     }
     res.json({ user: await signInAs(ctx, req, res, user.id) });
   });
@@ -136,11 +152,17 @@ export function authRouter(ctx: AppContext): Router {
         ),
       );
     if (!reset) {
-      throw new HttpError(400, 'token-invalid', 'This reset link has been used or has run out. Ask for a new one.');
+      throw new HttpError(
+        400,
+        'token-invalid',
+        'This reset link has been used or has run out. Ask for a new one.',
+      );
     }
     const problem = passwordProblem(body.password, reset.email);
     if (problem) {
-      throw new HttpError(400, 'password-common', problem, [{ path: 'password', message: problem }]);
+      throw new HttpError(400, 'password-common', problem, [
+        { path: 'password', message: problem },
+      ]);
     }
     const passwordHash = await hashPassword(body.password);
     await ctx.db.transaction(async (tx) => {

@@ -15,7 +15,10 @@ export function devMailRouter(ctx: AppContext): Router {
     const actor = requireActor(req);
     authorize(actor, 'dev-mail.read');
     // Only mail addressed to people of the admin's own school: schools stay apart even here.
-    const rows = await ctx.db.select({ email: users.email }).from(users).where(eq(users.schoolId, actor.schoolId));
+    const rows = await ctx.db
+      .select({ email: users.email })
+      .from(users)
+      .where(eq(users.schoolId, actor.schoolId));
     const ours = new Set(rows.map((r) => r.email));
     res.json({ messages: devMail().filter((m) => m.to.some((t) => ours.has(t.toLowerCase()))) });
   });

@@ -11,7 +11,11 @@ import { acceptInvitationSchema } from '../../shared/schemas/auth.js';
 
 const tokenParams = z.object({ token: z.string().min(10).max(200) });
 const invalid = () =>
-  new HttpError(404, 'invitation-invalid', 'This invitation has been used or has run out. Ask your school admin for a new one.');
+  new HttpError(
+    404,
+    'invitation-invalid',
+    'This invitation has been used or has run out. Ask your school admin for a new one.',
+  );
 
 export function invitationsRouter(ctx: AppContext): Router {
   const router = Router();
@@ -58,7 +62,10 @@ export function invitationsRouter(ctx: AppContext): Router {
     if (!row) throw invalid();
     const body = parse(acceptInvitationSchema, req.body);
     const problem = passwordProblem(body.password, row.email);
-    if (problem) throw new HttpError(400, 'password-common', problem, [{ path: 'password', message: problem }]);
+    if (problem)
+      throw new HttpError(400, 'password-common', problem, [
+        { path: 'password', message: problem },
+      ]);
     const passwordHash = await hashPassword(body.password);
     const accepted = await ctx.db.transaction(async (tx) => {
       // The status condition makes a second, concurrent acceptance of the same link change nothing.

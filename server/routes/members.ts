@@ -11,7 +11,12 @@ import { INVITATION_DAYS, newToken } from '../auth/tokens.js';
 import { enqueueMail } from '../mail/outbox.js';
 import { invitationMail } from '../mail/messages.js';
 import { idParamsSchema, type Role } from '../../shared/schemas/common.js';
-import { inviteSchema, memberUpdateSchema, type Member, type MemberStatus } from '../../shared/schemas/members.js';
+import {
+  inviteSchema,
+  memberUpdateSchema,
+  type Member,
+  type MemberStatus,
+} from '../../shared/schemas/members.js';
 
 /** The school's members, oldest first, with a pending invitation's expiry. */
 async function listMembers(tx: Tx, schoolId: string, onlyId?: string): Promise<Member[]> {
@@ -36,7 +41,11 @@ async function listMembers(tx: Tx, schoolId: string, onlyId?: string): Promise<M
     })
     .from(users)
     .leftJoin(pending, eq(pending.userId, users.id))
-    .where(onlyId ? and(eq(users.schoolId, schoolId), eq(users.id, onlyId)) : eq(users.schoolId, schoolId))
+    .where(
+      onlyId
+        ? and(eq(users.schoolId, schoolId), eq(users.id, onlyId))
+        : eq(users.schoolId, schoolId),
+    )
     .orderBy(users.createdAt, users.email);
   return rows.map((r) => ({
     id: r.id,
@@ -57,7 +66,14 @@ async function oneMember(tx: Tx, actor: Actor, id: string): Promise<Member> {
 }
 
 /** Inserts a fresh invitation token (older ones stop working) and queues its e-mail. */
-async function sendInvitation(ctx: AppContext, tx: Tx, actor: Actor, userId: string, email: string, role: Role) {
+async function sendInvitation(
+  ctx: AppContext,
+  tx: Tx,
+  actor: Actor,
+  userId: string,
+  email: string,
+  role: Role,
+) {
   await tx
     .update(invitations)
     .set({ usedAt: sql`now()` })
@@ -71,7 +87,14 @@ async function sendInvitation(ctx: AppContext, tx: Tx, actor: Actor, userId: str
   });
   await enqueueMail(
     tx,
-    invitationMail(ctx.config.appUrl, email, actor.schoolName, role, actor.name || actor.email, token),
+    invitationMail(
+      ctx.config.appUrl,
+      email,
+      actor.schoolName,
+      role,
+      actor.name || actor.email,
+      token,
+    ),
   );
 }
 
@@ -120,17 +143,27 @@ export function membersRouter(ctx: AppContext): Router {
     const body = parse(memberUpdateSchema, req.body);
     const member = await ctx.db.transaction(async (tx) => {
       // Lock the school's admins so two admins demoting each other cannot leave none.
-      await tx.execute(sql`SELECT id FROM users WHERE school_id = ${actor.schoolId} AND role = 'admin' FOR UPDATE`);
+      await tx.execute(
+        sql`SELECT id FROM users WHERE school_id = ${actor.schoolId} AND role = 'admin' FOR UPDATE`,
+      );
       const current = await oneMember(tx, actor, id);
       if (body.status === 'active' && current.status === 'invited') {
-        throw new HttpError(400, 'not-accepted', 'This person has not accepted the invitation yet.');
+        throw new HttpError(
+          400,
+          'not-accepted',
+          'This person has not accepted the invitation yet.',
+        );
       }
       const losesAdmin =
         current.role === 'admin' &&
         current.status === 'active' &&
         ((body.role !== undefined && body.role !== 'admin') || body.status === 'deactivated');
       if (losesAdmin && (await activeAdminCount(tx, actor.schoolId)) <= 1) {
-        throw new HttpError(400, 'last-admin', 'A school needs at least one active admin. Make someone else admin first.');
+        throw new HttpError(
+          400,
+          'last-admin',
+          'A school needs at least one active admin. Make someone else admin first.',
+        );
       }
       await tx
         .update(users)
@@ -151,7 +184,11 @@ export function membersRouter(ctx: AppContext): Router {
     const member = await ctx.db.transaction(async (tx) => {
       const current = await oneMember(tx, actor, id);
       if (current.status !== 'invited') {
-        throw new HttpError(400, 'not-invited', 'This person has already accepted their invitation.');
+        throw new HttpError(
+          400,
+          'not-invited',
+          'This person has already accepted their invitation.',
+        );
       }
       await sendInvitation(ctx, tx, actor, id, current.email, current.role);
       return oneMember(tx, actor, id);
@@ -162,4 +199,3 @@ export function membersRouter(ctx: AppContext): Router {
 
   return router;
 }
-

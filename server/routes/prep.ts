@@ -25,10 +25,15 @@ export function prepRouter(ctx: AppContext): Router {
     } catch (err) {
       if (err instanceof PrepInputError) {
         // Stored data the engine refuses (e.g. a material whose part left the parts list).
-        throw new HttpError(422, 'lesson-not-plannable', 'This lesson cannot be planned yet.', err.issues.map((i) => ({
-          path: i.path.map(String).join('.'),
-          message: i.message,
-        })));
+        throw new HttpError(
+          422,
+          'lesson-not-plannable',
+          'This lesson cannot be planned yet.',
+          err.issues.map((i) => ({
+            path: i.path.map(String).join('.'),
+            message: i.message,
+          })),
+        );
       }
       throw err;
     }

@@ -32,7 +32,11 @@ export function reliefRouter(ctx: AppContext): Router {
       .where(and(eq(lessons.schoolId, actor.schoolId), eq(lessons.reliefTeacherId, actor.id)))
       .orderBy(asc(lessons.startsAt));
     res.json({
-      lessons: rows.map((r) => ({ ...r, startsAt: toLocal(r.startsAt), endsAt: toLocal(r.endsAt) })),
+      lessons: rows.map((r) => ({
+        ...r,
+        startsAt: toLocal(r.startsAt),
+        endsAt: toLocal(r.endsAt),
+      })),
     });
   });
 
@@ -43,7 +47,13 @@ export function reliefRouter(ctx: AppContext): Router {
     const rows = await ctx.db
       .select({ id: users.id, name: users.name, email: users.email })
       .from(users)
-      .where(and(eq(users.schoolId, actor.schoolId), eq(users.role, 'relief'), eq(users.status, 'active')))
+      .where(
+        and(
+          eq(users.schoolId, actor.schoolId),
+          eq(users.role, 'relief'),
+          eq(users.status, 'active'),
+        ),
+      )
       .orderBy(asc(users.name));
     res.json({ teachers: rows });
   });

@@ -22,10 +22,22 @@ async function replacementList(ctx: AppContext, actor: Actor, kitTypeId: string)
     .from(kitTypes)
     .where(and(eq(kitTypes.id, kitTypeId), eq(kitTypes.schoolId, actor.schoolId)));
   if (!kit) throw notFound('That kit type');
-  const partRows = await ctx.db.select().from(parts).where(eq(parts.kitTypeId, kit.id)).orderBy(asc(parts.position));
+  const partRows = await ctx.db
+    .select()
+    .from(parts)
+    .where(eq(parts.kitTypeId, kit.id))
+    .orderBy(asc(parts.position));
   const tubRows = await ctx.db.select().from(tubs).where(eq(tubs.kitTypeId, kit.id));
   const missing = tubRows.length
-    ? await ctx.db.select().from(tubMissing).where(inArray(tubMissing.tubId, tubRows.map((t) => t.id)))
+    ? await ctx.db
+        .select()
+        .from(tubMissing)
+        .where(
+          inArray(
+            tubMissing.tubId,
+            tubRows.map((t) => t.id),
+          ),
+        )
     : [];
   const label = new Map(tubRows.map((t) => [t.id, t.label]));
   const collator = new Intl.Collator('en', { numeric: true });
@@ -36,7 +48,12 @@ async function replacementList(ctx: AppContext, actor: Actor, kitTypeId: string)
       .map((m) => ({ label: label.get(m.tubId)!, count: m.count }))
       .sort((a, b) => collator.compare(a.label, b.label));
     if (here.length) {
-      lines.push({ partCode: p.code, name: p.name, missing: here.reduce((n, x) => n + x.count, 0), tubs: here });
+      lines.push({
+        partCode: p.code,
+        name: p.name,
+        missing: here.reduce((n, x) => n + x.count, 0),
+        tubs: here,
+      });
     }
   }
   return { kit, lines };
@@ -57,10 +74,19 @@ export function replacementsRouter(ctx: AppContext): Router {
     const { id } = parseParams(idParamsSchema, req);
     const { kit, lines } = await replacementList(ctx, actor, id);
     const csv = stringify(
-      lines.map((l) => [l.partCode, l.name, l.missing, l.tubs.map((t) => `${t.label} (${t.count})`).join('; ')]),
+      lines.map((l) => [
+        l.partCode,
+        l.name,
+        l.missing,
+        l.tubs.map((t) => `${t.label} (${t.count})`).join('; '),
+      ]),
       { header: true, columns: ['code', 'name', 'missing', 'tubs'], record_delimiter: '\r\n' },
     );
-    const slug = kit.name.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '') || 'kit';
+    const slug =
+      kit.name
+        .toLowerCase()
+        .replace(/[^a-z0-9]+/g, '-')
+        .replace(/^-|-$/g, '') || 'kit';
     res.type('text/csv; charset=utf-8');
     res.setHeader('Content-Disposition', `attachment; filename="${slug}-replacements.csv"`);
     res.send(csv);

@@ -189,7 +189,11 @@ export function schoolRouter(ctx: AppContext): Router {
       .select({ id: users.id, name: users.name, email: users.email })
       .from(users)
       .where(
-        and(eq(users.schoolId, actor.schoolId), eq(users.role, 'teacher'), eq(users.status, 'active')),
+        and(
+          eq(users.schoolId, actor.schoolId),
+          eq(users.role, 'teacher'),
+          eq(users.status, 'active'),
+        ),
       )
       .orderBy(asc(users.name));
     res.json({ teachers: rows });

@@ -11,11 +11,26 @@ import type { Role } from '../../shared/schemas/common.js';
 /** Demo only: printed by the start command and in the README. */
 export const DEMO_PASSWORD = 'trayplan-demo';
 
-export const DEMO_ACCOUNTS: { email: string; name: string; role: Role; school: 'kestrel' | 'banksia' }[] = [
+export const DEMO_ACCOUNTS: {
+  email: string;
+  name: string;
+  role: Role;
+  school: 'kestrel' | 'banksia';
+}[] = [
   { email: 'admin@kestrel-ridge.example', name: 'Avery Quill', role: 'admin', school: 'kestrel' },
   { email: 'lead@kestrel-ridge.example', name: 'Morgan Ellery', role: 'lead', school: 'kestrel' },
-  { email: 'teacher@kestrel-ridge.example', name: 'Sam Kowhai', role: 'teacher', school: 'kestrel' },
-  { email: 'partner@kestrel-ridge.example', name: 'Jordan Pereira', role: 'teacher', school: 'kestrel' },
+  {
+    email: 'teacher@kestrel-ridge.example',
+    name: 'Sam Kowhai',
+    role: 'teacher',
+    school: 'kestrel',
+  },
+  {
+    email: 'partner@kestrel-ridge.example',
+    name: 'Jordan Pereira',
+    role: 'teacher',
+    school: 'kestrel',
+  },
   { email: 'relief@kestrel-ridge.example', name: 'Robin Tally', role: 'relief', school: 'kestrel' },
   { email: 'admin@banksia-flat.example', name: 'Casey Wren', role: 'admin', school: 'banksia' },
 ];
@@ -26,7 +41,10 @@ export interface SeededSchools {
 }
 
 /** Extra seed steps later capabilities add (planning data), run in the same transaction. */
-export type SeedStep = (tx: Tx, ids: SeededSchools & { userIds: Record<string, string> }) => Promise<void>;
+export type SeedStep = (
+  tx: Tx,
+  ids: SeededSchools & { userIds: Record<string, string> },
+) => Promise<void>;
 const steps: SeedStep[] = [];
 export function addSeedStep(step: SeedStep): void {
   steps.push(step);
@@ -38,11 +56,16 @@ export async function seedDemo(db: Db): Promise<boolean> {
   return db.transaction(async (tx) => {
     // One seeder at a time, and none once any school exists.
     await tx.execute(sql`SELECT pg_advisory_xact_lock(7262001)`);
-    const [{ n }] = (await tx.execute<{ n: number }>(sql`SELECT count(*)::int AS n FROM schools`)).rows as [{ n: number }];
+    const [{ n }] = (await tx.execute<{ n: number }>(sql`SELECT count(*)::int AS n FROM schools`))
+      .rows as [{ n: number }];
     if (n > 0) return false;
     const [kestrel] = await tx
       .insert(schools)
-      .values({ name: 'Kestrel Ridge Primary School', timezone: 'Australia/Adelaide', paperSize: 'A4' })
+      .values({
+        name: 'Kestrel Ridge Primary School',
+        timezone: 'Australia/Adelaide',
+        paperSize: 'A4',
+      })
       .returning();
     const [banksia] = await tx
       .insert(schools)

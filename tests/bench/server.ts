@@ -37,12 +37,19 @@ export async function benchServer(): Promise<BenchRow[]> {
     const prep = await load(`${base}/api/lessons/${lesson!.id}/prep`, { cookie });
     if (prep.non2xx > 0) throw new Error(`prep answered ${prep.non2xx} non-2xx responses`);
     return [
-      { name: 'server: GET /api/health, 50 connections', median: health.latency.p50, unit: 'ms', note: `p99 ${health.latency.p99} ms, ${Math.round(health.requests.average)} req/s` },
+      {
+        name: 'server: GET /api/health, 50 connections',
+        median: health.latency.p50,
+        unit: 'ms',
+        note: `p99 ${health.latency.p99} ms, ${Math.round(health.requests.average)} req/s`,
+      },
       {
         name: 'server: GET /api/lessons/:id/prep (demo lesson 2), 50 connections',
         median: prep.latency.p50,
         unit: 'ms',
-        ratio: Number((prep.requests.average ? health.requests.average / prep.requests.average : 0).toFixed(1)),
+        ratio: Number(
+          (prep.requests.average ? health.requests.average / prep.requests.average : 0).toFixed(1),
+        ),
         note: `p99 ${prep.latency.p99} ms, ${Math.round(prep.requests.average)} req/s; ratio = health req/s ÷ prep req/s`,
       },
     ];

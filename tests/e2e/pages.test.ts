@@ -37,7 +37,9 @@ describe('axe-core on every main page (WCAG 2.2 rules in axe-core)', () => {
       for (const path of paths) {
         await open(page, path);
         for (const v of await seriousViolations(page)) {
-          found.push(`${path} ${v.id}: ${v.help} (${v.nodes.map((n) => n.target.join(' ')).join(', ')})`);
+          found.push(
+            `${path} ${v.id}: ${v.help} (${v.nodes.map((n) => n.target.join(' ')).join(', ')})`,
+          );
         }
       }
       assert.deepEqual(found, []);
@@ -51,19 +53,31 @@ describe('axe-core on every main page (WCAG 2.2 rules in axe-core)', () => {
     await signInThroughPage(page, 'teacher@kestrel-ridge.example');
     await open(page, '/units');
     await page.getByRole('link', { name: 'Rescue Rovers', exact: true }).first().click();
-    await page.getByRole('link', { name: /Drive straight/ }).first().click();
+    await page
+      .getByRole('link', { name: /Drive straight/ })
+      .first()
+      .click();
     await page.getByRole('heading', { name: 'Timeline' }).waitFor();
     await page.waitForLoadState('networkidle');
     // The demo lesson 2 is short of controllers for groups 8 and 9 (seeded on purpose).
-    await page.getByText(/Group 8 is short/).first().waitFor();
+    await page
+      .getByText(/Group 8 is short/)
+      .first()
+      .waitFor();
     const onLesson = await seriousViolations(page);
-    assert.deepEqual(onLesson.map((v) => `${v.id}: ${v.help}`), []);
+    assert.deepEqual(
+      onLesson.map((v) => `${v.id}: ${v.help}`),
+      [],
+    );
     await open(page, '/kits');
     await page.getByRole('link', { name: 'Rover Builder Tub' }).first().click();
     await page.getByRole('heading', { name: 'Parts list' }).waitFor();
     await page.waitForLoadState('networkidle');
     const onKit = await seriousViolations(page);
-    assert.deepEqual(onKit.map((v) => `${v.id}: ${v.help}`), []);
+    assert.deepEqual(
+      onKit.map((v) => `${v.id}: ${v.help}`),
+      [],
+    );
     await context.close();
   });
 });

@@ -17,7 +17,15 @@ const NAV: Record<string, string[]> = {
   'partner@kestrel-ridge.example': ['Home', 'Units', 'Kits', 'Classes'],
   'lead@kestrel-ridge.example': ['Home', 'Units', 'Review', 'Outcomes'],
   'relief@kestrel-ridge.example': ['Home', 'Relief'],
-  'admin@kestrel-ridge.example': ['Home', 'Kits', 'Classes', 'Outcomes', 'School', 'Members', 'Mail outbox (development)'],
+  'admin@kestrel-ridge.example': [
+    'Home',
+    'Kits',
+    'Classes',
+    'Outcomes',
+    'School',
+    'Members',
+    'Mail outbox (development)',
+  ],
 };
 
 describe('sign-in and the shell', () => {
@@ -30,8 +38,14 @@ describe('sign-in and the shell', () => {
     await page.goto(`${baseUrl()}/sign-in`);
     await page.getByRole('button', { name: 'Sign in' }).waitFor();
     const violations = await seriousViolations(page);
-    assert.deepEqual(violations.map((v) => `${v.id}: ${v.help}`), []);
-    assert.deepEqual(problems.filter((p) => /Content Security Policy|Refused/.test(p)), []);
+    assert.deepEqual(
+      violations.map((v) => `${v.id}: ${v.help}`),
+      [],
+    );
+    assert.deepEqual(
+      problems.filter((p) => /Content Security Policy|Refused/.test(p)),
+      [],
+    );
     // The product font ships with the app and is really used.
     const family = await page.evaluate(() => getComputedStyle(document.body).fontFamily);
     assert.match(family, /Source Sans 3/);
@@ -58,7 +72,9 @@ describe('sign-in and the shell', () => {
       // The mail outbox entry appears once the client learns the page exists: wait for the last
       // expected entry before reading them all.
       await nav.getByRole('link', { name: expected.at(-1)! }).waitFor();
-      const labels = (await nav.getByRole('link').allInnerTexts()).map((s) => s.replace(/^\S+\n/, '').trim());
+      const labels = (await nav.getByRole('link').allInnerTexts()).map((s) =>
+        s.replace(/^\S+\n/, '').trim(),
+      );
       // Icons are ligature text inside the link: keep only the visible label words.
       const clean = labels.map((l) => l.split('\n').at(-1)!.trim());
       assert.deepEqual(clean, expected);
@@ -72,7 +88,12 @@ describe('sign-in and the shell', () => {
     const page = await context.newPage();
     await signInThroughPage(page, 'admin@kestrel-ridge.example');
     const violations = await seriousViolations(page);
-    assert.deepEqual(violations.map((v) => `${v.id}: ${v.help} (${v.nodes.map((n) => n.target.join(' ')).join(', ')})`), []);
+    assert.deepEqual(
+      violations.map(
+        (v) => `${v.id}: ${v.help} (${v.nodes.map((n) => n.target.join(' ')).join(', ')})`,
+      ),
+      [],
+    );
     await context.close();
   });
 
@@ -93,7 +114,10 @@ describe('sign-in and the shell', () => {
     const page = await context.newPage();
     await signInThroughPage(page, 'relief@kestrel-ridge.example');
     // The user menu is the button with the signed-in person's name (demo data).
-    await page.getByRole('banner').getByRole('button', { name: /Robin Tally/ }).click();
+    await page
+      .getByRole('banner')
+      .getByRole('button', { name: /Robin Tally/ })
+      .click();
     await page.getByRole('menuitem', { name: /sign out/i }).click();
     await page.getByRole('button', { name: 'Sign in' }).waitFor();
     const status = await page.evaluate(async () => (await fetch('/api/auth/me')).status);

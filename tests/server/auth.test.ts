@@ -40,17 +40,26 @@ describe('sign-in', () => {
 
   it('answers the same 401 for a wrong password and an unknown address', async () => {
     const wrong = await new Browser(t.app).signIn(TEACHER, 'not-the-password');
-    const unknown = await new Browser(t.app).signIn('nobody@kestrel-ridge.example', 'not-the-password');
+    const unknown = await new Browser(t.app).signIn(
+      'nobody@kestrel-ridge.example',
+      'not-the-password',
+    );
     assert.equal(wrong.status, 401);
     assert.equal(unknown.status, 401);
     assert.deepEqual(wrong.body, unknown.body);
   });
 
   it('refuses a deactivated account like a wrong password', async () => {
-    await t.database.db.update(users).set({ status: 'deactivated' }).where(eq(users.email, 'partner@kestrel-ridge.example'));
+    await t.database.db
+      .update(users)
+      .set({ status: 'deactivated' })
+      .where(eq(users.email, 'partner@kestrel-ridge.example'));
     const res = await new Browser(t.app).signIn('partner@kestrel-ridge.example');
     assert.equal(res.status, 401);
-    await t.database.db.update(users).set({ status: 'active' }).where(eq(users.email, 'partner@kestrel-ridge.example'));
+    await t.database.db
+      .update(users)
+      .set({ status: 'active' })
+      .where(eq(users.email, 'partner@kestrel-ridge.example'));
   });
 
   it('gives a new session id at sign-in (no session fixation)', async () => {
@@ -83,7 +92,8 @@ describe('sign-in', () => {
     const out = await b.post('/api/auth/sign-out');
     assert.equal(out.status, 204);
     assert.equal((await b.get('/api/auth/me')).status, 401);
-    if (cookie) assert.equal((await supertest(t.app).get('/api/auth/me').set('Cookie', cookie)).status, 401);
+    if (cookie)
+      assert.equal((await supertest(t.app).get('/api/auth/me').set('Cookie', cookie)).status, 401);
   });
 
   it('rejects a malformed body with every issue listed', async () => {
@@ -106,7 +116,10 @@ describe('CSRF', () => {
 
   it('refuses a wrong token and accepts the right one', async () => {
     const b = await signedIn(t.app, TEACHER);
-    const wrong = await b.agent.patch('/api/account').set('X-XSRF-TOKEN', 'forged').send({ name: 'X' });
+    const wrong = await b.agent
+      .patch('/api/account')
+      .set('X-XSRF-TOKEN', 'forged')
+      .send({ name: 'X' });
     assert.equal(wrong.status, 403);
     const right = await b.patch('/api/account', { name: 'Sam Kowhai' });
     assert.equal(right.status, 200);
@@ -129,7 +142,8 @@ describe('throttling failed sign-ins', () => {
 
   it('does not count successful sign-ins', async () => {
     const b = new Browser(t.app);
-    for (let i = 0; i < 8; i++) assert.equal((await b.signIn('relief@kestrel-ridge.example')).status, 200);
+    for (let i = 0; i < 8; i++)
+      assert.equal((await b.signIn('relief@kestrel-ridge.example')).status, 200);
   });
 });
 
@@ -143,7 +157,12 @@ describe('health', () => {
   it('answers 503 with db down when PostgreSQL is unreachable', async () => {
     const dead = openDatabase('postgres://trayplan@127.0.0.1:1/none', 1);
     const app = createApp(
-      { db: dead.db, pool: dead.pool, config: loadConfig({ databaseUrl: 'x', smtpUrl: 'x' }), kickMail: () => {} },
+      {
+        db: dead.db,
+        pool: dead.pool,
+        config: loadConfig({ databaseUrl: 'x', smtpUrl: 'x' }),
+        kickMail: () => {},
+      },
       { pruneSessions: false, clientDir: '/nonexistent' },
     );
     const res = await supertest(app).get('/api/health');

@@ -29,11 +29,20 @@ async function linkSentTo(to: string): Promise<string> {
 describe('roles are enforced on the server, route by route', () => {
   const cases: [string, 'get' | 'post', string, unknown][] = [
     ['list members', 'get', '/api/members', undefined],
-    ['invite', 'post', '/api/members/invitations', { email: 'x@kestrel-ridge.example', role: 'teacher' }],
+    [
+      'invite',
+      'post',
+      '/api/members/invitations',
+      { email: 'x@kestrel-ridge.example', role: 'teacher' },
+    ],
     ['read the mail outbox', 'get', '/api/dev/mail', undefined],
   ];
   for (const [what, method, url, body] of cases) {
-    for (const email of ['lead@kestrel-ridge.example', 'teacher@kestrel-ridge.example', 'relief@kestrel-ridge.example']) {
+    for (const email of [
+      'lead@kestrel-ridge.example',
+      'teacher@kestrel-ridge.example',
+      'relief@kestrel-ridge.example',
+    ]) {
       it(`${email.split('@')[0]} may not ${what} (403)`, async () => {
         const b = await signedIn(t.app, email);
         const res = method === 'get' ? await b.get(url) : await b.post(url, body);
@@ -64,7 +73,10 @@ describe('schools are isolated', () => {
       list.body.members.map((m: { email: string }) => m.email),
       [OTHER_ADMIN],
     );
-    const [teacher] = await t.database.db.select().from(users).where(eq(users.email, 'teacher@kestrel-ridge.example'));
+    const [teacher] = await t.database.db
+      .select()
+      .from(users)
+      .where(eq(users.email, 'teacher@kestrel-ridge.example'));
     const patch = await other.patch(`/api/members/${teacher!.id}`, { role: 'admin' });
     assert.equal(patch.status, 404);
     const resend = await other.post(`/api/members/${teacher!.id}/resend`);
@@ -74,7 +86,9 @@ describe('schools are isolated', () => {
   });
 
   it('the mail outbox page shows only mail to the admin’s own school', async () => {
-    await new Browser(t.app).post('/api/auth/password-reset', { email: 'teacher@kestrel-ridge.example' });
+    await new Browser(t.app).post('/api/auth/password-reset', {
+      email: 'teacher@kestrel-ridge.example',
+    });
     await linkSentTo('teacher@kestrel-ridge.example');
     const other = await signedIn(t.app, OTHER_ADMIN);
     const res = await other.get('/api/dev/mail');
@@ -86,7 +100,10 @@ describe('schools are isolated', () => {
 describe('invitations', () => {
   it('invites by e-mail, the link shows the invitation, accepting signs the person in', async () => {
     const admin = await signedIn(t.app, ADMIN);
-    const res = await admin.post('/api/members/invitations', { email: 'New.Teacher@Kestrel-Ridge.example', role: 'teacher' });
+    const res = await admin.post('/api/members/invitations', {
+      email: 'New.Teacher@Kestrel-Ridge.example',
+      role: 'teacher',
+    });
     assert.equal(res.status, 201);
     assert.equal(res.body.member.status, 'invited');
     assert.equal(res.body.member.email, 'new.teacher@kestrel-ridge.example');
@@ -105,37 +122,58 @@ describe('invitations', () => {
     assert.equal(info.body.schoolName, 'Kestrel Ridge Primary School');
     assert.equal(info.body.role, 'teacher');
 
-    const weak = await invitee.post(`/api/invitations/${token}/accept`, { name: 'Riley', password: 'password1' });
+    const weak = await invitee.post(`/api/invitations/${token}/accept`, {
+      name: 'Riley',
+      password: 'password1',
+    });
     assert.equal(weak.status, 400, 'a common password is refused');
 
-    const ok = await invitee.post(`/api/invitations/${token}/accept`, { name: 'Riley Ash', password: 'tubs of gears 42' });
+    const ok = await invitee.post(`/api/invitations/${token}/accept`, {
+      name: 'Riley Ash',
+      password: 'tubs of gears 42',
+    });
     assert.equal(ok.status, 200);
     assert.equal(ok.body.user.name, 'Riley Ash');
     assert.equal((await invitee.get('/api/auth/me')).body.user.role, 'teacher');
 
-    const again = await new Browser(t.app).post(`/api/invitations/${token}/accept`, { name: 'Z', password: 'another long one 9' });
+    const again = await new Browser(t.app).post(`/api/invitations/${token}/accept`, {
+      name: 'Z',
+      password: 'another long one 9',
+    });
     assert.equal(again.status, 404, 'the link works once');
   });
 
   it('refuses an address that already has an account (409) and bad input (400, nothing stored)', async () => {
     const admin = await signedIn(t.app, ADMIN);
-    assert.equal((await admin.post('/api/members/invitations', { email: OTHER_ADMIN, role: 'teacher' })).status, 409);
+    assert.equal(
+      (await admin.post('/api/members/invitations', { email: OTHER_ADMIN, role: 'teacher' }))
+        .status,
+      409,
+    );
     const before = (await t.database.db.select().from(users)).length;
     const bad = await admin.post('/api/members/invitations', { email: 'nope', role: 'owner' });
     assert.equal(bad.status, 400);
-    assert.deepEqual(bad.body.error.details.map((d: { path: string }) => d.path).sort(), ['email', 'role']);
+    assert.deepEqual(bad.body.error.details.map((d: { path: string }) => d.path).sort(), [
+      'email',
+      'role',
+    ]);
     assert.equal((await t.database.db.select().from(users)).length, before);
   });
 
   it('resend makes the old link stop working', async () => {
     const admin = await signedIn(t.app, ADMIN);
-    const res = await admin.post('/api/members/invitations', { email: 'resend@kestrel-ridge.example', role: 'relief' });
+    const res = await admin.post('/api/members/invitations', {
+      email: 'resend@kestrel-ridge.example',
+      role: 'relief',
+    });
     const first = await linkSentTo('resend@kestrel-ridge.example');
     const count = t.smtp.messages().length;
     assert.equal((await admin.post(`/api/members/${res.body.member.id}/resend`)).status, 202);
     await t.outbox.drain();
     await t.smtp.waitFor(count + 1);
-    const second = t.smtp.messages().find((m) => m.to.includes('resend@kestrel-ridge.example') && m.links[0] !== first)!;
+    const second = t.smtp
+      .messages()
+      .find((m) => m.to.includes('resend@kestrel-ridge.example') && m.links[0] !== first)!;
     const oldToken = new URL(first).pathname.split('/').pop();
     const newToken = new URL(second.links[0]!).pathname.split('/').pop();
     assert.equal((await new Browser(t.app).get(`/api/invitations/${oldToken}`)).status, 404);
@@ -144,7 +182,10 @@ describe('invitations', () => {
 
   it('an expired invitation is refused', async () => {
     const admin = await signedIn(t.app, ADMIN);
-    await admin.post('/api/members/invitations', { email: 'late@kestrel-ridge.example', role: 'teacher' });
+    await admin.post('/api/members/invitations', {
+      email: 'late@kestrel-ridge.example',
+      role: 'teacher',
+    });
     const link = await linkSentTo('late@kestrel-ridge.example');
     await t.database.db.update(invitations).set({ expiresAt: new Date(Date.now() - 1000) });
     const token = new URL(link).pathname.split('/').pop();
@@ -156,11 +197,18 @@ describe('member changes', () => {
   it('changes a role and deactivates, which ends that person’s sessions', async () => {
     const admin = await signedIn(t.app, ADMIN);
     const partner = await signedIn(t.app, 'partner@kestrel-ridge.example');
-    const [row] = await t.database.db.select().from(users).where(eq(users.email, 'partner@kestrel-ridge.example'));
+    const [row] = await t.database.db
+      .select()
+      .from(users)
+      .where(eq(users.email, 'partner@kestrel-ridge.example'));
     const role = await admin.patch(`/api/members/${row!.id}`, { role: 'lead' });
     assert.equal(role.status, 200);
     assert.equal(role.body.member.role, 'lead');
-    assert.equal((await partner.get('/api/auth/me')).body.user.role, 'lead', 'the new role applies at once');
+    assert.equal(
+      (await partner.get('/api/auth/me')).body.user.role,
+      'lead',
+      'the new role applies at once',
+    );
     const off = await admin.patch(`/api/members/${row!.id}`, { status: 'deactivated' });
     assert.equal(off.body.member.status, 'deactivated');
     assert.equal((await partner.get('/api/auth/me')).status, 401);
@@ -179,8 +227,12 @@ describe('member changes', () => {
 describe('password reset', () => {
   it('answers the same whether or not the address exists, and mails only a real one', async () => {
     const before = (await t.database.db.select().from(outbox)).length;
-    const a = await new Browser(t.app).post('/api/auth/password-reset', { email: 'nobody@kestrel-ridge.example' });
-    const b = await new Browser(t.app).post('/api/auth/password-reset', { email: 'lead@kestrel-ridge.example' });
+    const a = await new Browser(t.app).post('/api/auth/password-reset', {
+      email: 'nobody@kestrel-ridge.example',
+    });
+    const b = await new Browser(t.app).post('/api/auth/password-reset', {
+      email: 'lead@kestrel-ridge.example',
+    });
     assert.equal(a.status, 202);
     assert.equal(b.status, 202);
     assert.deepEqual(a.body, b.body);
@@ -196,11 +248,17 @@ describe('password reset', () => {
     await t.smtp.waitFor(count + 1);
     const link = t.smtp.messages().find((m) => m.to.includes(email))!.links[0]!;
     const token = new URL(link).pathname.split('/').pop()!;
-    const res = await new Browser(t.app).post('/api/auth/password-reset/complete', { token, password: 'kits packed by three' });
+    const res = await new Browser(t.app).post('/api/auth/password-reset/complete', {
+      token,
+      password: 'kits packed by three',
+    });
     assert.equal(res.status, 204);
     assert.equal((await elsewhere.get('/api/auth/me')).status, 401, 'other sessions ended');
     assert.equal((await new Browser(t.app).signIn(email, 'kits packed by three')).status, 200);
-    const again = await new Browser(t.app).post('/api/auth/password-reset/complete', { token, password: 'yet another phrase' });
+    const again = await new Browser(t.app).post('/api/auth/password-reset/complete', {
+      token,
+      password: 'yet another phrase',
+    });
     assert.equal(again.status, 400);
     assert.equal(again.body.error.code, 'token-invalid');
   });
@@ -209,11 +267,20 @@ describe('password reset', () => {
 describe('account', () => {
   it('renames and changes the password with the current one', async () => {
     const b = await signedIn(t.app, 'relief@kestrel-ridge.example');
-    assert.equal((await b.patch('/api/account', { name: '  Robin T.  ' })).body.user.name, 'Robin T.');
-    const wrong = await b.post('/api/account/password', { currentPassword: 'nope', newPassword: 'relief packs ready' });
+    assert.equal(
+      (await b.patch('/api/account', { name: '  Robin T.  ' })).body.user.name,
+      'Robin T.',
+    );
+    const wrong = await b.post('/api/account/password', {
+      currentPassword: 'nope',
+      newPassword: 'relief packs ready',
+    });
     assert.equal(wrong.status, 400);
     assert.equal(wrong.body.error.code, 'wrong-password');
-    const ok = await b.post('/api/account/password', { currentPassword: 'trayplan-demo', newPassword: 'relief packs ready' });
+    const ok = await b.post('/api/account/password', {
+      currentPassword: 'trayplan-demo',
+      newPassword: 'relief packs ready',
+    });
     assert.equal(ok.status, 204);
     assert.equal((await b.get('/api/auth/me')).status, 200, 'this session stays signed in');
   });
@@ -223,15 +290,24 @@ describe('outbox survives an SMTP outage', () => {
   it('keeps the message pending while SMTP refuses, and delivers it once SMTP is back', async () => {
     t.smtp.setRefusing(true);
     const admin = await signedIn(t.app, ADMIN);
-    await admin.post('/api/members/invitations', { email: 'outage@kestrel-ridge.example', role: 'teacher' });
+    await admin.post('/api/members/invitations', {
+      email: 'outage@kestrel-ridge.example',
+      role: 'teacher',
+    });
     await t.outbox.drain();
-    const [row] = await t.database.db.select().from(outbox).where(eq(outbox.toAddress, 'outage@kestrel-ridge.example'));
+    const [row] = await t.database.db
+      .select()
+      .from(outbox)
+      .where(eq(outbox.toAddress, 'outage@kestrel-ridge.example'));
     assert.equal(row!.status, 'pending');
     assert.ok(row!.attempts >= 1);
     assert.ok(row!.lastError);
     t.smtp.setRefusing(false);
     // Retry is due after the backoff; make it due now rather than waiting 5 s.
-    await t.database.db.update(outbox).set({ nextAttemptAt: new Date() }).where(eq(outbox.id, row!.id));
+    await t.database.db
+      .update(outbox)
+      .set({ nextAttemptAt: new Date() })
+      .where(eq(outbox.id, row!.id));
     await t.outbox.drain();
     const [sent] = await t.database.db.select().from(outbox).where(eq(outbox.id, row!.id));
     assert.equal(sent!.status, 'sent');

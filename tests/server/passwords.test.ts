@@ -8,7 +8,8 @@ describe('password storage (OWASP Password Storage Cheat Sheet)', () => {
   it('stores argon2id with at least m = 19456 KiB, t = 2, p = 1, read back from the PHC string', async () => {
     const phc = await hashPassword('a long enough phrase');
     // PHC string format: $argon2id$v=19$m=<KiB>,t=<iterations>,p=<lanes>$<salt>$<hash>
-    const m = /^\$argon2id\$v=19\$m=(\d+),t=(\d+),p=(\d+)\$([A-Za-z0-9+/]+)\$([A-Za-z0-9+/]+)$/.exec(phc);
+    const m =
+      /^\$argon2id\$v=19\$m=(\d+),t=(\d+),p=(\d+)\$([A-Za-z0-9+/]+)\$([A-Za-z0-9+/]+)$/.exec(phc);
     assert.ok(m, `PHC string ${phc}`);
     // OWASP Password Storage Cheat Sheet, "Argon2id": minimum m=19456 (19 MiB), t=2, p=1.
     assert.ok(Number(m[1]) >= 19456);
@@ -30,7 +31,10 @@ describe('password policy (NIST SP 800-63B §5.1.1.2)', () => {
     assert.equal(newPasswordSchema.safeParse('eight888').success, true);
   });
   it('allows 64 characters and more', () => {
-    assert.equal(newPasswordSchema.safeParse('x'.repeat(30) + ' '.repeat(4) + 'y'.repeat(40)).success, true);
+    assert.equal(
+      newPasswordSchema.safeParse('x'.repeat(30) + ' '.repeat(4) + 'y'.repeat(40)).success,
+      true,
+    );
   });
   it('has no composition rules: lower-case words with spaces are fine', () => {
     assert.equal(passwordProblem('tubs of gears on tuesday'), null);

@@ -7,7 +7,11 @@ import type { Express } from 'express';
 import { createApp } from '../../server/app.js';
 import { loadConfig } from '../../server/config.js';
 import type { AppContext } from '../../server/context.js';
-import { createMailTransport, startOutboxWorker, type OutboxWorker } from '../../server/mail/outbox.js';
+import {
+  createMailTransport,
+  startOutboxWorker,
+  type OutboxWorker,
+} from '../../server/mail/outbox.js';
 import { startFakeSmtp, type FakeSmtp } from '../../server/mail/fake-smtp.js';
 import { DEMO_PASSWORD } from '../../server/seed/index.js';
 import { freshDatabase, type TestDatabase } from './db.js';
@@ -31,7 +35,12 @@ export async function testApp(): Promise<TestApp> {
     appUrl: 'http://127.0.0.1:3999',
     development: true,
   });
-  const outbox = startOutboxWorker(database.db, createMailTransport(smtp.url), config.mailFrom, 200);
+  const outbox = startOutboxWorker(
+    database.db,
+    createMailTransport(smtp.url),
+    config.mailFrom,
+    200,
+  );
   const ctx: AppContext = {
     db: database.db,
     pool: database.pool,

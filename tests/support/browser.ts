@@ -32,7 +32,8 @@ export function launch(): Promise<Browser> {
 /** The base URL of the app that tests/run.ts started as `npm start` starts it. */
 export function baseUrl(): string {
   const url = process.env.TRAYPLAN_E2E_URL;
-  if (!url) throw new Error('TRAYPLAN_E2E_URL is not set: run the end-to-end suite through npm test.');
+  if (!url)
+    throw new Error('TRAYPLAN_E2E_URL is not set: run the end-to-end suite through npm test.');
   return url;
 }
 
@@ -48,7 +49,9 @@ export async function seriousViolations(page: Page): Promise<AxeViolation[]> {
   // Evaluated through the DevTools protocol, so the page's strict CSP stays as it is.
   await page.evaluate(readFileSync(require.resolve('axe-core/axe.min.js'), 'utf8'));
   const result = (await page.evaluate(async () => {
-    const axe = (window as unknown as { axe: { run: (ctx?: unknown, opts?: unknown) => Promise<unknown> } }).axe;
+    const axe = (
+      window as unknown as { axe: { run: (ctx?: unknown, opts?: unknown) => Promise<unknown> } }
+    ).axe;
     return axe.run(document, { resultTypes: ['violations'] });
   })) as { violations: AxeViolation[] };
   return result.violations.filter((v) => v.impact === 'serious' || v.impact === 'critical');

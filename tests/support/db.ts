@@ -16,7 +16,11 @@ export const TEMPLATE_DB = 'trayplan_template';
 /** Starts a throwaway cluster (fsync off) and makes the seeded template in it. */
 export async function startTestCluster() {
   const dir = mkdtempSync(path.join(os.tmpdir(), 'trayplan-test-'));
-  const cluster = startCluster({ dataDir: path.join(dir, 'pg'), port: await freePort(), durable: false });
+  const cluster = startCluster({
+    dataDir: path.join(dir, 'pg'),
+    port: await freePort(),
+    durable: false,
+  });
   const admin = new pg.Client({ connectionString: cluster.url('postgres') });
   await admin.connect();
   await admin.query(`CREATE DATABASE ${TEMPLATE_DB}`);

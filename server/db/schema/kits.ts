@@ -1,5 +1,14 @@
 import {
-  boolean, index, integer, jsonb, pgTable, primaryKey, text, timestamp, unique, uuid,
+  boolean,
+  index,
+  integer,
+  jsonb,
+  pgTable,
+  primaryKey,
+  text,
+  timestamp,
+  unique,
+  uuid,
 } from 'drizzle-orm/pg-core';
 import { schools } from './schools.js';
 import { users } from './users.js';
@@ -75,7 +84,10 @@ export const tubs = pgTable(
     version: integer().notNull().default(1),
     createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
   },
-  (t) => [unique('tubs_kit_label').on(t.kitTypeId, t.label), index('tubs_school_idx').on(t.schoolId)],
+  (t) => [
+    unique('tubs_kit_label').on(t.kitTypeId, t.label),
+    index('tubs_school_idx').on(t.schoolId),
+  ],
 );
 
 /** What a tub is known to be missing, per part code (stock = the kit's qty − count). */

@@ -1,5 +1,12 @@
 import {
-  boolean, index, integer, pgTable, primaryKey, text, timestamp, uuid,
+  boolean,
+  index,
+  integer,
+  pgTable,
+  primaryKey,
+  text,
+  timestamp,
+  uuid,
 } from 'drizzle-orm/pg-core';
 import { schools } from './schools.js';
 import { users } from './users.js';
@@ -94,7 +101,10 @@ export const lessons = pgTable(
     createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
     updatedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
   },
-  (t) => [index('lessons_unit_idx').on(t.unitId), index('lessons_school_start_idx').on(t.schoolId, t.startsAt)],
+  (t) => [
+    index('lessons_unit_idx').on(t.unitId),
+    index('lessons_school_start_idx').on(t.schoolId, t.startsAt),
+  ],
 );
 
 export const lessonTubs = pgTable(

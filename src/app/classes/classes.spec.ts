@@ -131,7 +131,10 @@ describe('ClassForm', () => {
     await (await loader.getHarness(MatButtonHarness.with({ text: 'Add class' }))).click();
     const request = backend.expectOne('/api/classes');
     expect(request.request.body.teacherIds).toEqual(['t-jordan']);
-    request.flush({ class: { ...CLASS_4K, id: 'c-4m', name: '4M' } }, { status: 201, statusText: 'Created' });
+    request.flush(
+      { class: { ...CLASS_4K, id: 'c-4m', name: '4M' } },
+      { status: 201, statusText: 'Created' },
+    );
   });
 
   it('puts a server error under its field', async () => {

@@ -25,7 +25,9 @@ export const agendaSchema = z.object({
     agendaLessonSchema.extend({ groups: z.number().nullable(), shortfalls: z.number() }),
   ),
   tasks: z.array(prepTaskSchema.extend({ lesson: agendaLessonSchema })),
-  attention: z.array(z.object({ lesson: agendaLessonSchema, kind: z.string(), message: z.string() })),
+  attention: z.array(
+    z.object({ lesson: agendaLessonSchema, kind: z.string(), message: z.string() }),
+  ),
 });
 export type Agenda = z.infer<typeof agendaSchema>;
 

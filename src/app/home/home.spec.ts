@@ -23,8 +23,22 @@ const WEEK: Agenda = {
   week: '2026-07-27',
   lessons: [{ ...LESSON, groups: 7, shortfalls: 1 }],
   tasks: [
-    { kind: 'charge', label: 'Charge 7 × Controller', minutes: 180, startBy: '2026-07-28T07:55:00+09:30', doneBy: '2026-07-28T10:55:00+09:30', lesson: LESSON },
-    { kind: 'pull', label: 'Pull parts for 7 groups', minutes: 12, startBy: '2026-07-28T10:58:00+09:30', doneBy: '2026-07-28T11:10:00+09:30', lesson: LESSON },
+    {
+      kind: 'charge',
+      label: 'Charge 7 × Controller',
+      minutes: 180,
+      startBy: '2026-07-28T07:55:00+09:30',
+      doneBy: '2026-07-28T10:55:00+09:30',
+      lesson: LESSON,
+    },
+    {
+      kind: 'pull',
+      label: 'Pull parts for 7 groups',
+      minutes: 12,
+      startBy: '2026-07-28T10:58:00+09:30',
+      doneBy: '2026-07-28T11:10:00+09:30',
+      lesson: LESSON,
+    },
   ],
   attention: [{ lesson: LESSON, kind: 'shortfall', message: '1 × RB-001 short for group 7.' }],
 };
@@ -66,7 +80,9 @@ describe('Home', () => {
     expect((fixture.nativeElement as HTMLElement).textContent).toContain(
       'Nothing planned for you this week.',
     );
-    await (await loader.getHarness(MatButtonHarness.with({ text: /week of 27 July 2026/ }))).click();
+    await (
+      await loader.getHarness(MatButtonHarness.with({ text: /week of 27 July 2026/ }))
+    ).click();
     backend.expectOne(url('2026-07-27')).flush(WEEK);
     await fixture.whenStable();
     const el = fixture.nativeElement as HTMLElement;
@@ -84,7 +100,9 @@ describe('Home', () => {
     const current = mondayOf(today());
     backend.expectOne(url(current)).flush(WEEK);
     await fixture.whenStable();
-    await (await loader.getHarness(MatButtonHarness.with({ selector: '[aria-label="Next week"]' }))).click();
+    await (
+      await loader.getHarness(MatButtonHarness.with({ selector: '[aria-label="Next week"]' }))
+    ).click();
     backend.expectOne(url(addDays(current, 7))).flush(WEEK);
     await fixture.whenStable();
     const previous = () =>

@@ -49,7 +49,6 @@ export type Conflicts = z.infer<typeof conflictsSchema>;
 /** The fields of a part the inline editor may change. */
 export type PartChange = Partial<Omit<Part, 'id' | 'hasPhoto'>>;
 
-
 /** Progress of a part photo upload, then the part as saved (with `hasPhoto`). */
 export type PhotoProgress =
   { kind: 'progress'; percent: number | null } | { kind: 'done'; part: Part };

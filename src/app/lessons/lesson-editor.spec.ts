@@ -258,18 +258,16 @@ describe('LessonEditor', () => {
     flushKit();
     await (await input('Lesson title')).setValue('My title');
     await (await loader.getHarness(MatButtonHarness.with({ text: 'Save lesson' }))).click();
-    backend
-      .expectOne('/api/lessons/lesson-1')
-      .flush(
-        {
-          error: {
-            code: 'stale-version',
-            message: 'Changed.',
-            current: lesson({ version: 4, title: 'Their title' }),
-          },
+    backend.expectOne('/api/lessons/lesson-1').flush(
+      {
+        error: {
+          code: 'stale-version',
+          message: 'Changed.',
+          current: lesson({ version: 4, title: 'Their title' }),
         },
-        { status: 409, statusText: 'Conflict' },
-      );
+      },
+      { status: 409, statusText: 'Conflict' },
+    );
     await (await loader.getHarness(MatButtonHarness.with({ text: 'Reload' }))).click();
     flushKit();
     expect(await (await input('Lesson title')).getValue()).toBe('Their title');

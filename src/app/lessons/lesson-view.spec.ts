@@ -56,9 +56,7 @@ describe('LessonView', () => {
   }
 
   async function pullListOf(group: number) {
-    return loader.getHarness(
-      MatTableHarness.with({ ancestor: `#group-${group}` }),
-    );
+    return loader.getHarness(MatTableHarness.with({ ancestor: `#group-${group}` }));
   }
 
   it('recomputes when the page comes back into view and shows what changed elsewhere', async () => {
@@ -153,12 +151,16 @@ describe('LessonView', () => {
 
   it('on a stale version says the lesson changed and offers Reload and Re-apply', async () => {
     await (await loader.getHarness(MatButtonHarness.with({ text: 'Use 2 groups' }))).click();
-    backend
-      .expectOne('/api/lessons/lesson-2')
-      .flush(
-        { error: { code: 'stale', message: 'Changed.', current: workedExampleLesson({ version: 5, groupSize: 4 }) } },
-        { status: 409, statusText: 'Conflict' },
-      );
+    backend.expectOne('/api/lessons/lesson-2').flush(
+      {
+        error: {
+          code: 'stale',
+          message: 'Changed.',
+          current: workedExampleLesson({ version: 5, groupSize: 4 }),
+        },
+      },
+      { status: 409, statusText: 'Conflict' },
+    );
     await fixture.whenStable();
     expect(text()).toContain('Someone else changed this lesson');
     expect(text()).toContain('its group size is now 4');

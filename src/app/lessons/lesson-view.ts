@@ -81,8 +81,7 @@ export class LessonView {
   private scrolled = false;
 
   protected readonly groupSuggestions = computed(
-    () =>
-      (this.plan()?.suggestions.filter((s) => s.kind === 'groups') ?? []) as GroupsSuggestion[],
+    () => (this.plan()?.suggestions.filter((s) => s.kind === 'groups') ?? []) as GroupsSuggestion[],
   );
   protected readonly partSuggestions = computed(
     () => this.plan()?.suggestions.filter((s) => s.kind === 'part') ?? [],
@@ -258,4 +257,3 @@ function fileName(lesson: Lesson | null, file: Printable): string {
   const base = (lesson?.title ?? 'lesson').replace(/[^\w-]+/g, '-').replace(/^-|-$/g, '');
   return `${base || 'lesson'}-${file}`;
 }
-

@@ -26,7 +26,11 @@ export interface PullRow {
   template: `
     <div class="table-wrap">
       <table mat-table [dataSource]="rows()">
-        <caption class="visually-hidden">{{ caption() }}</caption>
+        <caption class="visually-hidden">
+          {{
+            caption()
+          }}
+        </caption>
         <ng-container matColumnDef="part">
           <th mat-header-cell *matHeaderCellDef>Part</th>
           <td mat-cell *matCellDef="let row">

@@ -25,8 +25,8 @@ const KIND_LABELS: Record<PrepSegment['kind'], string> = {
       } @else if (t.slackMinutes > 0) {
         {{ t.slackMinutes }} min to spare.
       }
-      Pack-away starts at <strong>{{ clock(t.packAwayStartsAt) }}</strong>
-      ({{ t.packAwayMinutes }} min).
+      Pack-away starts at <strong>{{ clock(t.packAwayStartsAt) }}</strong> ({{ t.packAwayMinutes }}
+      min).
     </p>
     <div class="bar-wrap">
       <ol class="bar" aria-label="Lesson timeline">

@@ -69,9 +69,35 @@ export function workedExamplePlan(overrides: Partial<PrepInput> = {}): PrepPlan 
 export function workedExampleParts(): Part[] {
   const base = { qty: 1, small: false, chargeMinutes: null, hasPhoto: false };
   return [
-    { ...base, id: 'p1', code: 'RB-001', name: 'Controller', colour: 'Grey', category: 'controller', compartment: 'A', chargeMinutes: 180 },
-    { ...base, id: 'p2', code: 'RB-010', name: 'Motor', colour: 'Black', category: 'motor', compartment: 'B' },
-    { ...base, id: 'p3', code: 'RB-020', name: 'Pin', colour: 'Blue', category: 'connector', compartment: 'C', small: true },
+    {
+      ...base,
+      id: 'p1',
+      code: 'RB-001',
+      name: 'Controller',
+      colour: 'Grey',
+      category: 'controller',
+      compartment: 'A',
+      chargeMinutes: 180,
+    },
+    {
+      ...base,
+      id: 'p2',
+      code: 'RB-010',
+      name: 'Motor',
+      colour: 'Black',
+      category: 'motor',
+      compartment: 'B',
+    },
+    {
+      ...base,
+      id: 'p3',
+      code: 'RB-020',
+      name: 'Pin',
+      colour: 'Blue',
+      category: 'connector',
+      compartment: 'C',
+      small: true,
+    },
   ] as Part[];
 }
 

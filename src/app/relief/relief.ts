@@ -12,7 +12,14 @@ import { ReliefApi, type ReliefLesson } from './relief-api';
 /** A relief teacher's page: each assigned lesson with its notes, a link and its lesson pack. */
 @Component({
   selector: 'app-relief',
-  imports: [RouterLink, MarkdownComponent, MatButtonModule, MatCardModule, MatIconModule, MatProgressBarModule],
+  imports: [
+    RouterLink,
+    MarkdownComponent,
+    MatButtonModule,
+    MatCardModule,
+    MatIconModule,
+    MatProgressBarModule,
+  ],
   templateUrl: './relief.html',
   styleUrl: './relief.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -40,7 +47,8 @@ export class Relief {
     this.printing.set({ id: lesson.id, fraction: null });
     this.api.pack(lesson.id).subscribe({
       next: (event) => {
-        if (event.kind === 'progress') this.printing.set({ id: lesson.id, fraction: event.fraction });
+        if (event.kind === 'progress')
+          this.printing.set({ id: lesson.id, fraction: event.fraction });
         else {
           this.printing.set(null);
           saveBlob(event.blob, event.name ?? `${lesson.className}-lesson-pack.pdf`);

@@ -276,7 +276,9 @@ describe('SchoolSettingsPage', () => {
     const root = TestbedHarnessEnvironment.documentRootLoader(fixture);
     const dialog = await root.getHarness(MatDialogHarness);
     expect(await dialog.getTitleText()).toBe('Leave without saving?');
-    await (await dialog.getHarness(MatButtonHarness.with({ text: 'Stay and keep editing' }))).click();
+    await (
+      await dialog.getHarness(MatButtonHarness.with({ text: 'Stay and keep editing' }))
+    ).click();
     expect(await stay).toBeFalse();
     // Karma itself listens for a real beforeunload, so the handler is called directly.
     const event = jasmine.createSpyObj<BeforeUnloadEvent>('event', ['preventDefault']);

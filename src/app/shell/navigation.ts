@@ -2,7 +2,16 @@ import type { Role } from '../../../shared/schemas/common';
 
 /** The areas of the app a role can be given. */
 export type Area =
-  'home' | 'units' | 'kits' | 'classes' | 'outcomes' | 'review' | 'relief' | 'school' | 'members' | 'devMail';
+  | 'home'
+  | 'units'
+  | 'kits'
+  | 'classes'
+  | 'outcomes'
+  | 'review'
+  | 'relief'
+  | 'school'
+  | 'members'
+  | 'devMail';
 
 /**
  * Which roles see each area. This mirrors the server's rules for the navigation and the route

@@ -140,18 +140,16 @@ describe('UnitEditor', () => {
   it('on a 409 Reload shows the unit as it is now and drops my edit', async () => {
     await (await title()).setValue('Mine');
     await (await button('Save changes')).click();
-    backend
-      .expectOne('/api/units/u-1')
-      .flush(
-        {
-          error: {
-            code: 'stale-version',
-            message: 'Changed.',
-            current: unit({ version: 4, title: 'Theirs' }),
-          },
+    backend.expectOne('/api/units/u-1').flush(
+      {
+        error: {
+          code: 'stale-version',
+          message: 'Changed.',
+          current: unit({ version: 4, title: 'Theirs' }),
         },
-        { status: 409, statusText: 'Conflict' },
-      );
+      },
+      { status: 409, statusText: 'Conflict' },
+    );
     await fixture.whenStable();
     expect(text()).toContain('The title is now “Theirs”.');
     await (await button('Reload')).click();
