@@ -78,6 +78,9 @@ export default function karmaConfig(config) {
           '--no-default-browser-check',
           '--disable-quic',
           '--mute-audio',
+          // Any free debugging port, so that Karma runs in several work trees at once do not clash
+          // (the launcher otherwise fixes 9222).
+          '--remote-debugging-port=0',
           '--host-resolver-rules=MAP * ~NOTFOUND , EXCLUDE 127.0.0.1',
         ],
       },
