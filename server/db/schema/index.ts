@@ -7,3 +7,4 @@ export * from './classes.js';
 export * from './kits.js';
 export * from './outcomes.js';
 export * from './units.js';
+export * from './history.js';
