@@ -44,3 +44,21 @@ export function resetMail(appUrl: string, to: string, name: string, token: strin
     ].join('\n'),
   };
 }
+
+/** Sent once when many wrong passwords were tried for an account (OWASP: notify the owner). */
+export function signInWarningMail(appUrl: string, to: string, name: string): OutgoingMail {
+  return {
+    to,
+    subject: 'Someone tried to sign in to your Trayplan account',
+    text: [
+      `Hello ${name || 'there'},`,
+      ``,
+      `In the last few minutes, many sign-ins to your Trayplan account failed with a wrong password.`,
+      `Your account is not locked: you can still sign in as usual, though it may answer more slowly.`,
+      ``,
+      `If this was not you, choose a new password now (use "Forgot your password?" on the sign-in`,
+      `page) and tell your school admin:`,
+      `${appUrl}/sign-in`,
+    ].join('\n'),
+  };
+}

@@ -1,5 +1,4 @@
 import { Router, type Request, type Response } from 'express';
-import { rateLimit, type Options } from 'express-rate-limit';
 import { and, eq, gt, isNull, sql } from 'drizzle-orm';
 import type { AppContext } from '../context.js';
 import { passwordResets, users } from '../db/schema/index.js';
@@ -15,32 +14,16 @@ import { destroySession, regenerate, requireActor, saveSession } from '../auth/s
 import { endSessionsOf, sessionUser } from '../auth/users.js';
 import { hashToken, newToken, RESET_MINUTES } from '../auth/tokens.js';
 import { enqueueMail } from '../mail/outbox.js';
-import { resetMail } from '../mail/messages.js';
+import { resetMail, signInWarningMail } from '../mail/messages.js';
+import { countRequest, reserveSignIn, signInKeys, sleep } from '../auth/throttle.js';
 import {
   resetCompleteSchema,
   resetRequestSchema,
   signInSchema,
 } from '../../shared/schemas/auth.js';
 
-const FIFTEEN_MINUTES = 15 * 60 * 1000;
-
-/** 429 with Retry-After (RFC 6585 §4, RFC 9110 §10.2.3) in the API's error shape. */
-const throttled: Options['handler'] = (req, res) => {
-  const reset = (req as Request & { rateLimit?: { resetTime?: Date } }).rateLimit?.resetTime;
-  const seconds = reset ? Math.max(1, Math.ceil((reset.getTime() - Date.now()) / 1000)) : 900;
-  res.setHeader('Retry-After', String(seconds));
-  res.status(429).json({
-    error: {
-      code: 'throttled',
-      message: `Too many attempts. Try again in ${Math.ceil(seconds / 60)} minutes.`,
-    },
-  });
-};
-
-function emailKey(req: Request): string {
-  const raw = (req.body as { email?: unknown } | undefined)?.email;
-  return typeof raw === 'string' ? `email:${raw.trim().toLowerCase()}` : 'email:';
-}
+/** Reset e-mails one address may ask for in the throttling window. */
+const RESET_REQUESTS_PER_WINDOW = 10;
 
 /** Completes a sign-in: new session id, new CSRF token, last sign-in time. */
 export async function signInAs(ctx: AppContext, req: Request, res: Response, userId: string) {
@@ -58,52 +41,33 @@ export async function signInAs(ctx: AppContext, req: Request, res: Response, use
 export function authRouter(ctx: AppContext): Router {
   const router = Router();
 
-  // Failed sign-ins only are counted (skipSuccessfulRequests): 5 per e-mail, 30 per address.
-  const perAddress = rateLimit({
-    windowMs: FIFTEEN_MINUTES,
-    limit: 30,
-    skipSuccessfulRequests: true,
-    standardHeaders: 'draft-8',
-    legacyHeaders: false,
-    handler: throttled,
-  });
-  const perEmail = rateLimit({
-    windowMs: FIFTEEN_MINUTES,
-    limit: 5,
-    skipSuccessfulRequests: true,
-    standardHeaders: false,
-    legacyHeaders: false,
-    keyGenerator: emailKey,
-    handler: throttled,
-  });
-  const resetLimit = rateLimit({
-    windowMs: FIFTEEN_MINUTES,
-    limit: 10,
-    standardHeaders: false,
-    legacyHeaders: false,
-    keyGenerator: emailKey,
-    handler: throttled,
-  });
-
   router.get('/csrf', (req, res) => {
     issueCsrf(req, res, ctx.config.behindHttps);
     res.status(204).end();
   });
 
-  router.post('/sign-in', perAddress, perEmail, async (req, res) => {
+  router.post('/sign-in', async (req, res) => {
+    // A malformed request checks no password, so it is answered before anything is counted.
     const body = parse(signInSchema, req.body);
+    const attempt = await reserveSignIn(ctx.db, signInKeys(body.email, req.ip ?? ''));
+    if (attempt.delayMs) await sleep(attempt.delayMs);
     const [user] = await ctx.db.select().from(users).where(eq(users.email, body.email));
     // An unknown address costs the same hash as a known one, and answers the same 401.
     const ok = user
       ? (await verifyPassword(user.passwordHash, body.password)) && user.status === 'active'
       : (await verifyPassword(await dummyPasswordHash(), body.password), false);
     if (!user || !ok) {
+      if (user && user.status === 'active' && (await attempt.shouldWarn())) {
+        await enqueueMail(ctx.db, signInWarningMail(ctx.config.appUrl, user.email, user.name));
+        ctx.kickMail();
+      }
       throw new HttpError(
         401,
         'invalid-credentials',
         "That e-mail and password don't match an account.",
       );
     }
+    await attempt.release();
     res.json({ user: await signInAs(ctx, req, res, user.id) });
   });
 
@@ -118,8 +82,9 @@ export function authRouter(ctx: AppContext): Router {
     res.json({ user: actor });
   });
 
-  router.post('/password-reset', resetLimit, async (req, res) => {
+  router.post('/password-reset', async (req, res) => {
     const { email } = parse(resetRequestSchema, req.body);
+    await countRequest(ctx.db, `reset:${email}`, RESET_REQUESTS_PER_WINDOW);
     const [user] = await ctx.db.select().from(users).where(eq(users.email, email));
     if (user && user.status === 'active') {
       const { token, hash } = newToken();

@@ -8,3 +8,4 @@ export * from './kits.js';
 export * from './outcomes.js';
 export * from './units.js';
 export * from './history.js';
+export * from './throttle.js';
