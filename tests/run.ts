@@ -11,6 +11,7 @@ import { fileURLToPath } from 'node:url';
 import pg from 'pg';
 import { findPostgresBin, freePort } from '../server/db/cluster.js';
 import { startTestCluster, TEMPLATE_DB } from './support/db.js';
+import { report, runGates } from './check/run.js';
 
 const root = fileURLToPath(new URL('..', import.meta.url));
 const CHROMIUM = '/usr/bin/chromium';
@@ -159,6 +160,22 @@ async function startApp(databaseUrl: string, env: NodeJS.ProcessEnv) {
 }
 
 async function main(): Promise<number> {
+  const results: SuiteResult[] = [];
+  // Formatting, lint and types first: a change that breaks one of them fails before any suite.
+  if (only.length === 0 || only.includes('check')) {
+    console.log('=== checks (Prettier, ESLint, TypeScript) ===');
+    const gates = await runGates();
+    if (!report(gates)) {
+      const passed = gates.filter((g) => g.ok).length;
+      console.log(`\n${passed} passed, ${gates.length - passed} failed`);
+      return 1;
+    }
+    results.push({ name: 'checks', passed: gates.length, failed: 0, ok: true });
+    if (only.length === 1) {
+      console.log(`\n${gates.length} passed, 0 failed`);
+      return 0;
+    }
+  }
   findPostgresBin();
   ensureChromium();
   console.log('Starting a throwaway PostgreSQL cluster for the tests…');
@@ -171,7 +188,6 @@ async function main(): Promise<number> {
     NODE_ENV: 'test',
     FORCE_COLOR: '0',
   };
-  const results: SuiteResult[] = [];
   const want = (name: string) => only.length === 0 || only.includes(name);
   const nodeTest = (list: string[]) => [
     '--import',

@@ -19,6 +19,8 @@ export const ATTACHMENT_EXTENSIONS: Record<string, readonly string[]> = {
 export function safeFilename(original: string, mime: string): string {
   const base = original.normalize('NFC').split(/[\\/]/).pop() ?? '';
   let name = base
+    // Control and bidirectional-override characters are exactly what this strips.
+    // eslint-disable-next-line no-control-regex
     .replace(/[\u0000-\u001f\u007f-\u009f\u200e\u200f\u202a-\u202e\u2066-\u2069]/g, '')
     .trim()
     .slice(0, 200);

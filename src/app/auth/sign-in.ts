@@ -6,7 +6,6 @@ import { MatCardModule } from '@angular/material/card';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { ActivatedRoute, Router, RouterLink } from '@angular/router';
-import { map } from 'rxjs';
 import { signInSchema } from '../../../shared/schemas/auth';
 import { emailSchema } from '../../../shared/schemas/common';
 import { AppError } from '../errors/app-error';

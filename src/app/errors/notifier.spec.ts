@@ -1,13 +1,13 @@
 import type { HarnessLoader } from '@angular/cdk/testing';
 import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
-import { Component } from '@angular/core';
+import { ChangeDetectionStrategy, Component } from '@angular/core';
 import { TestBed } from '@angular/core/testing';
 import { MatSnackBarHarness } from '@angular/material/snack-bar/testing';
 import { testProviders } from '../testing/test-providers';
 import { AppError, UNEXPECTED_RESPONSE_MESSAGE, UNKNOWN_MESSAGE } from './app-error';
 import { Notifier } from './notifier';
 
-@Component({ selector: 'app-host', template: '' })
+@Component({ selector: 'app-host', template: '', changeDetection: ChangeDetectionStrategy.OnPush })
 class Host {}
 
 describe('Notifier', () => {

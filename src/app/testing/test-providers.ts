@@ -1,6 +1,11 @@
 import { provideHttpClient, withInterceptors, withXsrfConfiguration } from '@angular/common/http';
 import { provideHttpClientTesting } from '@angular/common/http/testing';
-import { Component, type EnvironmentProviders, type Provider } from '@angular/core';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  type EnvironmentProviders,
+  type Provider,
+} from '@angular/core';
 import { MATERIAL_ANIMATIONS } from '@angular/material/core';
 import { provideRouter, withComponentInputBinding, type Routes } from '@angular/router';
 import type { SessionUser } from '../../../shared/schemas/auth';
@@ -8,7 +13,7 @@ import type { Role } from '../../../shared/schemas/common';
 import { errorInterceptor } from '../errors/error-interceptor';
 
 /** A page that renders nothing, for routes a spec only navigates to. */
-@Component({ selector: 'app-blank', template: '' })
+@Component({ selector: 'app-blank', template: '', changeDetection: ChangeDetectionStrategy.OnPush })
 export class Blank {}
 
 /**

@@ -13,7 +13,6 @@ import {
   unitSchema,
   type Unit,
   type LessonOrder,
-  type PersonRef,
   type UnitCreate,
   type UnitStatus,
   type UnitSummary,
