@@ -25,6 +25,13 @@ import {
 /** Reset e-mails one address may ask for in the throttling window. */
 const RESET_REQUESTS_PER_WINDOW = 10;
 
+const resetInvalid = () =>
+  new HttpError(
+    400,
+    'token-invalid',
+    'This reset link has been used or has run out. Ask for a new one.',
+  );
+
 /** Completes a sign-in: new session id, new CSRF token, last sign-in time. */
 export async function signInAs(ctx: AppContext, req: Request, res: Response, userId: string) {
   await regenerate(req);
@@ -116,13 +123,7 @@ export function authRouter(ctx: AppContext): Router {
           eq(users.status, 'active'),
         ),
       );
-    if (!reset) {
-      throw new HttpError(
-        400,
-        'token-invalid',
-        'This reset link has been used or has run out. Ask for a new one.',
-      );
-    }
+    if (!reset) throw resetInvalid();
     const problem = passwordProblem(body.password, reset.email);
     if (problem) {
       throw new HttpError(400, 'password-common', problem, [
@@ -130,14 +131,30 @@ export function authRouter(ctx: AppContext): Router {
       ]);
     }
     const passwordHash = await hashPassword(body.password);
-    await ctx.db.transaction(async (tx) => {
+    const claimed = await ctx.db.transaction(async (tx) => {
+      // The claim is one conditional UPDATE: of racing uses of the link exactly one gets a row.
+      const [won] = await tx
+        .update(passwordResets)
+        .set({ usedAt: sql`now()` })
+        .where(
+          and(
+            eq(passwordResets.id, reset.id),
+            isNull(passwordResets.usedAt),
+            gt(passwordResets.expiresAt, sql`now()`),
+          ),
+        )
+        .returning({ id: passwordResets.id });
+      if (!won) return false;
       await tx.update(users).set({ passwordHash }).where(eq(users.id, reset.userId));
+      // Any other reset link of this person stops working too.
       await tx
         .update(passwordResets)
         .set({ usedAt: sql`now()` })
         .where(and(eq(passwordResets.userId, reset.userId), isNull(passwordResets.usedAt)));
       await endSessionsOf(tx, reset.userId);
+      return true;
     });
+    if (!claimed) throw resetInvalid();
     res.status(204).end();
   });
 

@@ -68,17 +68,31 @@ export function invitationsRouter(ctx: AppContext): Router {
       ]);
     const passwordHash = await hashPassword(body.password);
     const accepted = await ctx.db.transaction(async (tx) => {
-      // The status condition makes a second, concurrent acceptance of the same link change nothing.
+      // The claim is one conditional UPDATE: of racing uses of the link exactly one gets a row.
+      const [won] = await tx
+        .update(invitations)
+        .set({ usedAt: sql`now()` })
+        .where(
+          and(
+            eq(invitations.id, row.id),
+            isNull(invitations.usedAt),
+            gt(invitations.expiresAt, sql`now()`),
+          ),
+        )
+        .returning({ id: invitations.id });
+      if (!won) return false;
+      // The status condition keeps an older link of the same person from reviving the account.
       const done = await tx
         .update(users)
         .set({ name: body.name, passwordHash, status: 'active' })
         .where(and(eq(users.id, row.userId), eq(users.status, 'invited')))
         .returning({ id: users.id });
+      if (done.length !== 1) return false;
       await tx
         .update(invitations)
         .set({ usedAt: sql`now()` })
         .where(and(eq(invitations.userId, row.userId), isNull(invitations.usedAt)));
-      return done.length === 1;
+      return true;
     });
     if (!accepted) throw invalid();
     res.json({ user: await signInAs(ctx, req, res, row.userId) });

@@ -71,7 +71,6 @@ describe('sign-in throttling per account and address', () => {
 describe('failures of one account from many addresses', () => {
   it('never block the right password, slow the answers and e-mail the owner once', async () => {
     const email = 'relief@kestrel-ridge.example';
-    const before = t.smtp.messages().length;
     for (let i = 1; i <= 12; i++) {
       const res = await from(`127.0.1.${i}`).signIn(email, 'wrong');
       assert.equal(res.status, 401, `failure ${i} from its own address is a 401, never a 429`);
@@ -84,7 +83,6 @@ describe('failures of one account from many addresses', () => {
     await new Promise((r) => setTimeout(r, 300));
     const warnings = t.smtp
       .messages()
-      .slice(before)
       .filter((m) => m.to.includes(email) && /sign in/i.test(m.subject));
     assert.equal(warnings.length, 1, 'exactly one warning e-mail to the owner');
   });
