@@ -28,6 +28,8 @@ import { printablesRouter } from './routes/printables.js';
 import { agendaRouter, conflictsRouter } from './routes/agenda.js';
 import { replacementsRouter } from './routes/replacements.js';
 import { reliefRouter } from './routes/relief.js';
+import { lessonShareLinksRouter, shareLinksRouter } from './routes/share-links.js';
+import { shareRouter } from './routes/share.js';
 
 export const clientDir = fileURLToPath(new URL('../dist/trayplan/browser', import.meta.url));
 
@@ -74,6 +76,9 @@ function api(ctx: AppContext, options: AppOptions): express.Router {
   router.use('/relief', reliefRouter(ctx));
   router.use('/conflicts', conflictsRouter(ctx));
   router.use(printablesRouter(ctx));
+  router.use('/lessons/:lessonId/share-links', lessonShareLinksRouter(ctx));
+  router.use('/share-links', shareLinksRouter(ctx));
+  router.use('/share', shareRouter(ctx));
   router.use('/lessons', prepRouter(ctx));
   router.use('/lessons', lessonsRouter(ctx));
   router.use('/activities', activitiesRouter(ctx));

@@ -98,3 +98,11 @@ export function canReadLesson(
     lesson.reliefTeacherId === actor.id
   );
 }
+
+/**
+ * Who shares a lesson by link (and lists and withdraws its links): whoever edits it, and the
+ * school's admins, who arrange relief cover.
+ */
+export function canShareLesson(actor: Actor, unit: UnitFacts): boolean {
+  return canEditUnit(actor, unit) || (actor.role === 'admin' && sameSchool(actor, unit.schoolId));
+}

@@ -9,3 +9,4 @@ export * from './outcomes.js';
 export * from './units.js';
 export * from './history.js';
 export * from './throttle.js';
+export * from './sharing.js';
