@@ -13,7 +13,7 @@ export const CAUTIONS: readonly { title: string; text: string }[] = [
   {
     title: 'Small parts',
     text:
-      'Pins, bushes, short axles and figures are small enough to be swallowed or breathed in: they ' +
+      'Pegs, clips, spacer rings, short rods and figures are small enough to be swallowed or breathed in: they ' +
       'are a choking hazard. Keep the kits away from young children, keep small parts in their ' +
       'trays while building, and count them back in at pack-away.',
   },

@@ -26,16 +26,16 @@ function gate(cables: number): MaterialSeed[] {
     g(CONTROLLER, 1),
     g(SERVO, 1),
     g(CABLE, cables),
-    g('GS-005', 2), // arm beams
+    g('GS-005', 2), // arm struts
     g('GS-006', 2), // post frames
     g('GS-007', 1), // base plate
-    g('GS-009', 1), // axle
-    s('GS-008', 3), // friction pins
+    g('GS-009', 1), // drive rod
+    s('GS-008', 3), // snap pegs
   ];
 }
 
 const CAUTIONS =
-  '**Cautions** (the school’s policies come first): pins and toy cars are small parts — count ' +
+  '**Cautions** (the school’s policies come first): pegs and toy cars are small parts — count ' +
   'them back in. Charge controllers on a hard surface, never unattended overnight; a swollen or ' +
   'hot battery is taken out of use. Keep cables out of walkways.';
 

@@ -53,27 +53,27 @@ export const ROVER_PARTS: PartSeed[] = [
   part('RB-007', 'Touch sensor', 'White', 'sensor', 1, 'A3'),
   part('RB-008', 'Motor cable, 20 cm', 'Black', 'cable', 3, 'A4'),
   part('RB-009', 'Sensor cable, 30 cm', 'Black', 'cable', 3, 'A4'),
-  part('RB-010', 'Wheel hub, 40 mm', 'Yellow', 'wheel', 4, 'B1'),
-  part('RB-011', 'Rubber tyre, 40 mm', 'Black', 'wheel', 4, 'B1'),
-  part('RB-012', 'Caster ball wheel', 'Silver', 'wheel', 1, 'B1'),
-  part('RB-013', 'Axle, 3 long', 'Red', 'axle', 6, 'B2'),
-  part('RB-014', 'Axle, 5 long', 'Grey', 'axle', 6, 'B2'),
-  part('RB-015', 'Axle, 8 long', 'Black', 'axle', 4, 'B2'),
-  part('RB-016', 'Gear, 12 teeth', 'Grey', 'gear', 4, 'B3'),
-  part('RB-017', 'Gear, 24 teeth', 'Grey', 'gear', 4, 'B3'),
-  part('RB-018', 'Gear, 36 teeth', 'Grey', 'gear', 2, 'B3'),
-  part('RB-019', 'Worm gear', 'Grey', 'gear', 1, 'B3'),
-  part('RB-020', 'Beam, 5 holes', 'Blue', 'structure', 8, 'C1'),
-  part('RB-021', 'Beam, 9 holes', 'Blue', 'structure', 8, 'C1'),
-  part('RB-022', 'Beam, 13 holes', 'Blue', 'structure', 4, 'C1'),
-  part('RB-023', 'Angled beam, 90°', 'Blue', 'structure', 6, 'C2'),
-  part('RB-024', 'Chassis frame, 5 × 7', 'Green', 'structure', 2, 'C2'),
-  part('RB-025', 'Base plate, 6 × 10', 'Green', 'plate', 2, 'C3'),
-  part('RB-026', 'Flat plate, 2 × 4', 'Green', 'plate', 6, 'C3'),
-  part('RB-027', 'Friction pin', 'Black', 'connector', 40, 'D1', { small: true }),
-  part('RB-028', 'Long friction pin', 'Blue', 'connector', 20, 'D1', { small: true }),
-  part('RB-029', 'Axle pin', 'Red', 'connector', 20, 'D2', { small: true }),
-  part('RB-030', 'Bush', 'Red', 'connector', 24, 'D3', { small: true }),
+  part('RB-010', 'Wheel hub, 42 mm', 'Coral', 'wheel', 4, 'B1'),
+  part('RB-011', 'Grip tyre, 42 mm', 'Charcoal', 'wheel', 4, 'B1'),
+  part('RB-012', 'Caster ball wheel', 'Steel', 'wheel', 1, 'B1'),
+  part('RB-013', 'Drive rod, 35 mm', 'Steel', 'axle', 6, 'B2'),
+  part('RB-014', 'Drive rod, 60 mm', 'Steel', 'axle', 6, 'B2'),
+  part('RB-015', 'Drive rod, 110 mm', 'Steel', 'axle', 4, 'B2'),
+  part('RB-016', 'Spur gear, 10 teeth', 'Ivory', 'gear', 4, 'B3'),
+  part('RB-017', 'Spur gear, 30 teeth', 'Ivory', 'gear', 4, 'B3'),
+  part('RB-018', 'Spur gear, 50 teeth', 'Ivory', 'gear', 2, 'B3'),
+  part('RB-019', 'Worm screw', 'Ivory', 'gear', 1, 'B3'),
+  part('RB-020', 'Snap strut, 64 mm', 'Teal', 'structure', 8, 'C1'),
+  part('RB-021', 'Snap strut, 112 mm', 'Teal', 'structure', 8, 'C1'),
+  part('RB-022', 'Snap strut, 176 mm', 'Teal', 'structure', 4, 'C1'),
+  part('RB-023', 'Corner bracket', 'Teal', 'structure', 6, 'C2'),
+  part('RB-024', 'Chassis deck, 96 × 128 mm', 'Sand', 'structure', 2, 'C2'),
+  part('RB-025', 'Base panel, 128 × 192 mm', 'Sand', 'plate', 2, 'C3'),
+  part('RB-026', 'Cover panel, 32 × 64 mm', 'Sand', 'plate', 6, 'C3'),
+  part('RB-027', 'Snap peg', 'Lime', 'connector', 40, 'D1', { small: true }),
+  part('RB-028', 'Double snap peg', 'Violet', 'connector', 20, 'D1', { small: true }),
+  part('RB-029', 'Rod clip', 'Amber', 'connector', 20, 'D2', { small: true }),
+  part('RB-030', 'Spacer ring', 'Amber', 'connector', 24, 'D3', { small: true }),
   part('RB-031', 'Winch cord with hook', 'White', 'other', 1, 'E1'),
   part('RB-032', 'Rescue figure', 'Orange', 'figure', 2, 'E2', { small: true }),
 ];
@@ -84,11 +84,11 @@ export const GATE_PARTS: PartSeed[] = [
   part('GS-002', 'Servo motor', 'Grey', 'motor', 2, 'A2'),
   part('GS-003', 'Light-gate sensor pair', 'White', 'sensor', 2, 'A3'),
   part('GS-004', 'Connector cable, 25 cm', 'Black', 'cable', 6, 'A4'),
-  part('GS-005', 'Gate arm beam', 'Red', 'structure', 4, 'B1'),
-  part('GS-006', 'Gate post frame', 'Blue', 'structure', 4, 'B1'),
-  part('GS-007', 'Base plate, 4 × 8', 'Green', 'plate', 2, 'B2'),
-  part('GS-008', 'Friction pin', 'Black', 'connector', 30, 'C1', { small: true }),
-  part('GS-009', 'Axle, 4 long', 'Grey', 'axle', 4, 'C2'),
+  part('GS-005', 'Gate arm strut', 'Teal', 'structure', 4, 'B1'),
+  part('GS-006', 'Gate post frame', 'Sand', 'structure', 4, 'B1'),
+  part('GS-007', 'Base panel, 64 × 128 mm', 'Sand', 'plate', 2, 'B2'),
+  part('GS-008', 'Snap peg', 'Lime', 'connector', 30, 'C1', { small: true }),
+  part('GS-009', 'Drive rod, 48 mm', 'Steel', 'axle', 4, 'C2'),
   part('GS-010', 'Status light module', 'Clear', 'display', 2, 'C3'),
   part('GS-011', 'Toy car', 'Yellow', 'figure', 3, 'D1', { small: true }),
 ];
@@ -96,14 +96,14 @@ export const GATE_PARTS: PartSeed[] = [
 /** Banksia Flat's only kit type, there to show that schools do not see each other's kits. */
 const BANKSIA_PARTS: PartSeed[] = [
   part('PL-01', 'Pulley wheel', 'Yellow', 'wheel', 4, 'A'),
-  part('PL-02', 'Lever beam', 'Blue', 'structure', 4, 'A'),
-  part('PL-03', 'Peg', 'Red', 'connector', 24, 'B', { small: true }),
+  part('PL-02', 'Lever arm', 'Blue', 'structure', 4, 'A'),
+  part('PL-03', 'Peg', 'Lime', 'connector', 24, 'B', { small: true }),
   part('PL-04', 'Cord, 1 m', 'White', 'other', 2, 'B'),
 ];
 
 /** What Tub 3 and Tub 5 are known to be missing (the rest are full). */
 export const ROVER_MISSING: Record<string, { partCode: string; count: number }[]> = {
-  // 12 pins short of 40 leaves 28: a group of four needing 32 borrows 4 from another tub.
+  // 12 pegs short of 40 leaves 28: a group of four needing 32 borrows 4 from another tub.
   'Tub 3': [
     { partCode: 'RB-027', count: 12 },
     { partCode: 'RB-011', count: 1 },
@@ -210,7 +210,7 @@ export async function seedKits(tx: Tx, schoolId: string, auditorId: string): Pro
     ],
     found: [],
     note:
-      'Pack-away count at the end of term 2: 12 friction pins and one tyre not returned. ' +
+      'Pack-away count at the end of term 2: 12 snap pegs and one tyre not returned. ' +
       'Lost-parts box and the carpet checked; reordered on the replacement list.',
     createdAt: new Date('2026-07-02T14:35:00+09:30'),
   });

@@ -4,10 +4,10 @@
  */
 import { consumable, perGroup as g, perStudent as s, type LessonSeed } from './planning-units.js';
 import {
-  ANGLED,
+  BRACKET,
   CONTROLLER,
   DRIVE_MOTOR,
-  LONG_PIN,
+  DOUBLE_PEG,
   MOTOR_CABLE,
   SENSOR_CABLE,
   SPARE_BATTERY,
@@ -147,7 +147,7 @@ export const ROVERS_WEEKS_1_4: LessonSeed[] = [
         title: 'Fit a bumper with the touch sensor',
         kind: 'build',
         minutes: 12,
-        materials: [...chassis(8), g(TOUCH, 1), g(SENSOR_CABLE, 1), g(ANGLED, 2), s(LONG_PIN, 1)],
+        materials: [...chassis(8), g(TOUCH, 1), g(SENSOR_CABLE, 1), g(BRACKET, 2), s(DOUBLE_PEG, 1)],
       },
       {
         title: 'Stop when the bumper is pressed',

@@ -51,25 +51,25 @@ describe('reading the parts-list CSV: RFC 4180 §2', () => {
   };
 
   it('rule 1: records end with CRLF; rule 2: the last record may have none', () => {
-    const list = read('code,name,qty\r\nA,Axle,2\r\nB,Bush,3');
+    const list = read('code,name,qty\r\nA,Axle,2\r\nB,Spacer ring,3');
     assert.deepEqual(
       list.map((p) => [p.code, p.name, p.qty]),
       [
         ['A', 'Axle', 2],
-        ['B', 'Bush', 3],
+        ['B', 'Spacer ring', 3],
       ],
     );
   });
 
   it('LF line ends are read the same (common practice, no published source: files saved on Unix-like systems)', () => {
     assert.deepEqual(
-      read('code,name,qty\nA,Axle,2\nB,Bush,3\n'),
-      read('code,name,qty\r\nA,Axle,2\r\nB,Bush,3\r\n'),
+      read('code,name,qty\nA,Axle,2\nB,Spacer ring,3\n'),
+      read('code,name,qty\r\nA,Axle,2\r\nB,Spacer ring,3\r\n'),
     );
   });
 
   it('rule 6: a field holding a comma is enclosed in double quotes', () => {
-    assert.equal(read('code,name,qty\r\nA,"Beam, 7 holes",4\r\n')[0]!.name, 'Beam, 7 holes');
+    assert.equal(read('code,name,qty\r\nA,"Strut, 96 mm",4\r\n')[0]!.name, 'Strut, 96 mm');
   });
 
   it('rule 7: a double quote inside a quoted field is doubled', () => {

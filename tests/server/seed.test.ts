@@ -202,6 +202,21 @@ describe('the demo school of BRIEF.md', () => {
     );
   });
 
+  it('builds in a construction style of its own: metric sizes, no borrowed part families', () => {
+    // BRIEF.md, "Demo scenario": the demo kits must not echo a real construction system — no
+    // parts counted in holes or "long" units, no friction or axle pins, no bushes.
+    const borrowed = /\b(holes?|pins?|bush(es)?|\d+ long|beam)\b/i;
+    for (const p of data.parts) assert.doesNotMatch(p.name, borrowed, `${p.code} ${p.name}`);
+    const rover = data.parts.filter((p) => p.kitTypeId === kit('Rover Builder Tub').id);
+    // Sizes are metric (lengths, diameters, panel sizes in millimetres; cables in centimetres).
+    const sized = rover.filter((p) => /\d/.test(p.name) && !/teeth/.test(p.name));
+    assert.ok(sized.length >= 8, `${sized.length} sized parts`);
+    for (const p of sized) assert.match(p.name, /\d+ (mm|cm)$/, `${p.code} ${p.name}`);
+    // Rods are plain steel: their colour says nothing about their length.
+    const rods = rover.filter((p) => p.category === 'axle');
+    assert.deepEqual([...new Set(rods.map((p) => p.colour))], ['Steel']);
+  });
+
   it('has eight Rover tubs: two with missing parts, one needing sorting', () => {
     const tubs = roverTubs();
     assert.deepEqual(
@@ -323,7 +338,7 @@ describe('what the prep plan of the demo shows (PREP-RULES.md by hand)', () => {
     assert.deepEqual(groupSizes(27, 4), [4, 4, 4, 4, 4, 4, 3]);
   });
 
-  it('week 1 has group 3 borrow friction pins for its home tub, Tub 3', () => {
+  it('week 1 has group 3 borrow snap pegs for its home tub, Tub 3', () => {
     const l = lessonsOf('Rescue Rovers')[0]!;
     const sizes = groupSizes(27, l.groupSize);
     const usable = usableTubs(l.id);
