@@ -147,7 +147,13 @@ export const ROVERS_WEEKS_1_4: LessonSeed[] = [
         title: 'Fit a bumper with the touch sensor',
         kind: 'build',
         minutes: 12,
-        materials: [...chassis(8), g(TOUCH, 1), g(SENSOR_CABLE, 1), g(BRACKET, 2), s(DOUBLE_PEG, 1)],
+        materials: [
+          ...chassis(8),
+          g(TOUCH, 1),
+          g(SENSOR_CABLE, 1),
+          g(BRACKET, 2),
+          s(DOUBLE_PEG, 1),
+        ],
       },
       {
         title: 'Stop when the bumper is pressed',
