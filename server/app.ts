@@ -30,6 +30,7 @@ import { replacementsRouter } from './routes/replacements.js';
 import { reliefRouter } from './routes/relief.js';
 import { lessonShareLinksRouter, shareLinksRouter } from './routes/share-links.js';
 import { shareRouter } from './routes/share.js';
+import { calendarFeedRouter, calendarRouter } from './routes/calendar-feed.js';
 
 export const clientDir = fileURLToPath(new URL('../dist/trayplan/browser', import.meta.url));
 
@@ -62,7 +63,9 @@ function api(ctx: AppContext, options: AppOptions): express.Router {
   });
   router.use('/auth', authRouter(ctx));
   router.use('/invitations', invitationsRouter(ctx));
+  router.use('/account/calendar-feed', calendarFeedRouter(ctx));
   router.use('/account', accountRouter(ctx));
+  router.use('/calendar', calendarRouter(ctx));
   router.use('/members', membersRouter(ctx));
   router.use('/dev/mail', devMailRouter(ctx));
   router.use('/school', schoolRouter(ctx));

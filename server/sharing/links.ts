@@ -49,6 +49,21 @@ export function checkShareExpiry(expiresAt: string, now: Date): Date {
   return at;
 }
 
+/**
+ * Whether a stored token hash is the one just computed, compared in constant time. Lookups go by
+ * the hash (its timing tells nothing about the token itself); this compare is the final word.
+ */
+export function sameHash(stored: string, computed: string): boolean {
+  const a = Buffer.from(stored, 'hex');
+  const b = Buffer.from(computed, 'hex');
+  return a.length === b.length && timingSafeEqual(a, b);
+}
+
+/** Whether a token has the shape Trayplan makes (base64url, 22 to 128 characters). */
+export function tokenShaped(token: string): boolean {
+  return TOKEN_SHAPE.test(token);
+}
+
 /** An open link: the lesson it shows and until when. */
 export interface OpenShareLink {
   id: string;
@@ -65,14 +80,10 @@ const unknownLink = () =>
  * (in words a relief teacher can act on).
  */
 export async function openShareLink(db: Db | Tx, token: string): Promise<OpenShareLink> {
-  if (!TOKEN_SHAPE.test(token)) throw unknownLink();
+  if (!tokenShaped(token)) throw unknownLink();
   const hash = hashToken(token);
   const [row] = await db.select().from(shareLinks).where(eq(shareLinks.tokenHash, hash));
-  // The lookup is by a hash of the token (its timing tells nothing about the token itself);
-  // the stored hash is still compared in constant time before the link counts as found.
-  if (!row || !timingSafeEqual(Buffer.from(row.tokenHash, 'hex'), Buffer.from(hash, 'hex'))) {
-    throw unknownLink();
-  }
+  if (!row || !sameHash(row.tokenHash, hash)) throw unknownLink();
   if (row.revokedAt) {
     throw new HttpError(
       410,
