@@ -6,6 +6,7 @@ import { classes, lessons, units, users } from '../db/schema/index.js';
 import { forbidden } from '../http.js';
 import { requireActor } from '../auth/session.js';
 import { toLocal } from '../prep/load.js';
+import { reliefDay } from '../sharing/today.js';
 
 export function reliefRouter(ctx: AppContext): Router {
   const router = Router();
@@ -38,6 +39,20 @@ export function reliefRouter(ctx: AppContext): Router {
         endsAt: toLocal(r.endsAt),
       })),
     });
+  });
+
+  // GET /api/relief/today: the relief teacher's lessons of today (school's timezone) in time
+  // order, each with its room, class, notes, build instructions and the prep tasks still open.
+  router.get('/today', async (req, res) => {
+    const actor = requireActor(req);
+    if (actor.role !== 'relief') throw forbidden('Only relief teachers have assigned lessons.');
+    const now = new Date();
+    res.json(
+      await ctx.db.transaction((tx) => reliefDay(tx, actor, now), {
+        isolationLevel: 'repeatable read',
+        accessMode: 'read only',
+      }),
+    );
   });
 
   // GET /api/relief/teachers: the school's active relief teachers, for assigning a lesson.

@@ -6,7 +6,7 @@
 import * as z from 'zod';
 import { emailSchema } from './common.js';
 import { activityKindSchema, attachmentSchema } from './lessons.js';
-import { prepPlanSchema } from '../prep/plan-schema.js';
+import { prepPlanSchema, prepTaskSchema } from '../prep/plan-schema.js';
 
 /** The longest a share link may live, in days (API.md). */
 export const SHARE_LINK_MAX_DAYS = 14;
@@ -100,3 +100,28 @@ export type SharedLesson = z.infer<typeof sharedLessonSchema>;
 
 /** `POST /api/account/calendar-feed`. */
 export const calendarFeedSchema = z.object({ url: z.string() });
+
+/** `GET /api/relief/today`: the relief teacher's lessons of today, in time order. */
+export const reliefDaySchema = z.object({
+  /** Today in the school's timezone, `2026-08-04`. */
+  date: z.string(),
+  lessons: z.array(
+    z.object({
+      id: z.string(),
+      title: z.string(),
+      unitTitle: z.string(),
+      className: z.string(),
+      startsAt: z.string(),
+      endsAt: z.string(),
+      periodName: z.string().nullable(),
+      room: z.string(),
+      reliefNotes: z.string(),
+      /** Whether the lesson can be planned (and so printed) as stored. */
+      plannable: z.boolean(),
+      /** Prep tasks whose done-by time has not passed. */
+      openTasks: z.array(prepTaskSchema),
+      activities: z.array(sharedActivitySchema),
+    }),
+  ),
+});
+export type ReliefDay = z.infer<typeof reliefDaySchema>;
