@@ -9,6 +9,7 @@ import { DateTime } from 'luxon';
 import type { LessonPackModel } from '../pdf/model.js';
 import { localClockTime, shortDate } from '../pdf/format.js';
 import { vtimezone } from './vtimezone.js';
+import { calendarText, escapeCalendarText } from './text.js';
 
 export interface PrepCalendarInput {
   /** Calendar name, e.g. `Trayplan prep: Rescue Rovers, lesson 2`. */
@@ -33,7 +34,8 @@ export function prepCalendar(input: PrepCalendarInput): string {
   const from = times.length ? Math.min(...times) : Date.parse(input.generatedAt);
   const to = times.length ? Math.max(...times) : from;
   const calendar = ical({
-    name: input.name,
+    // ical-generator writes NAME and X-WR-CALNAME as given; every other text value it escapes.
+    name: escapeCalendarText(input.name),
     prodId: { company: 'Trayplan', product: 'Prep calendar', language: 'EN' },
     // No calendar-wide zone name: each event carries its TZID, DTSTAMP stays in UTC (RFC 5545
     // 3.8.7.2); the generator still writes the VTIMEZONE of every zone the events use.
@@ -55,18 +57,20 @@ export function prepCalendar(input: PrepCalendarInput): string {
         end: done,
         timezone,
         stamp: new Date(input.generatedAt),
-        summary: task.label,
-        description,
-        location: lesson.room || null,
+        summary: calendarText(task.label),
+        description: calendarText(description),
+        location: lesson.room ? calendarText(lesson.room) : null,
         url: input.lessonUrl(lesson.id),
         transparency: ICalEventTransparency.OPAQUE,
       });
       event.createAlarm({
         type: ICalAlarmType.display,
         trigger: 0,
-        description: `Start now: ${task.label}`,
+        description: calendarText(`Start now: ${task.label}`),
       });
     });
   }
-  return calendar.toString();
+  // RFC 5545 §3.4: the object ends with END:VCALENDAR CRLF; the generator leaves the CRLF off.
+  const text = calendar.toString();
+  return text.endsWith('\r\n') ? text : `${text}\r\n`;
 }

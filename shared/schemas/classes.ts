@@ -1,5 +1,6 @@
 /** Classes: the groups of students a lesson is taught to. Used by the server and the client. */
 import * as z from 'zod';
+import { singleLine } from './text.js';
 import { uuidSchema } from './common.js';
 
 /** A whole number in [min, max] with a message a teacher can read. */
@@ -16,8 +17,7 @@ function whole(min: number, max: number) {
 export const YEAR_LEVELS = [0, 1, 2, 3, 4, 5, 6, 7, 8, 9, 10, 11, 12] as const;
 
 const classFields = {
-  name: z
-    .string({ error: 'Enter a class name, like 4K.' })
+  name: singleLine({ error: 'Enter a class name, like 4K.' })
     .trim()
     .min(1, { error: 'Enter a class name, like 4K.' })
     .max(40, { error: 'A class name is at most 40 characters.' }),

@@ -1,4 +1,5 @@
 import * as z from 'zod';
+import { singleLine } from './text.js';
 
 /** The four roles a member of a school can hold. */
 export const ROLES = ['admin', 'lead', 'teacher', 'relief'] as const;
@@ -32,15 +33,13 @@ export interface ApiErrorBody {
   error: { code: string; message: string; details?: ApiErrorDetail[]; current?: unknown };
 }
 
-export const emailSchema = z
-  .string({ message: 'Enter an e-mail address.' })
+export const emailSchema = singleLine({ message: 'Enter an e-mail address.' })
   .trim()
   .toLowerCase()
   .max(254, { message: 'An e-mail address is at most 254 characters.' })
   .pipe(z.email({ message: 'Enter a valid e-mail address, like name@school.example.' }));
 
-export const personNameSchema = z
-  .string({ message: 'Enter a name.' })
+export const personNameSchema = singleLine({ message: 'Enter a name.' })
   .trim()
   .min(1, { message: 'Enter a name.' })
   .max(120, { message: 'A name is at most 120 characters.' });

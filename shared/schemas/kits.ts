@@ -3,6 +3,7 @@
  * Used by the server and the client; the CSV importer checks rows with `partInputSchema` too.
  */
 import * as z from 'zod';
+import { multiLine, singleLine } from './text.js';
 import { uuidSchema } from './common.js';
 
 export const PART_CATEGORIES = [
@@ -41,8 +42,7 @@ function whole(min: number, max: number) {
 
 /** Optional text: blank becomes null. */
 function optionalText(max: number, what: string) {
-  return z
-    .string({ error: `The ${what} must be text.` })
+  return singleLine({ error: `The ${what} must be text.` })
     .trim()
     .max(max, { error: `The ${what} is at most ${max} characters.` })
     .nullish()
@@ -77,13 +77,11 @@ function noRepeats(key: string, message: (value: string, firstIndex: number) => 
 }
 
 export const kitTypeCreateSchema = z.object({
-  name: z
-    .string({ error: 'Enter a name for the kit type.' })
+  name: singleLine({ error: 'Enter a name for the kit type.' })
     .trim()
     .min(1, { error: 'Enter a name for the kit type.' })
     .max(80, { error: 'A kit type name is at most 80 characters.' }),
-  description: z
-    .string({ error: 'The description must be text.' })
+  description: multiLine({ error: 'The description must be text.' })
     .trim()
     .max(2000, { error: 'A description is at most 2000 characters.' })
     .default(''),
@@ -94,8 +92,7 @@ export const kitTypeUpdateSchema = z
   .object({
     version: versionSchema,
     name: kitTypeCreateSchema.shape.name.optional(),
-    description: z
-      .string({ error: 'The description must be text.' })
+    description: multiLine({ error: 'The description must be text.' })
       .trim()
       .max(2000, { error: 'A description is at most 2000 characters.' })
       .optional(),
@@ -106,13 +103,11 @@ export const kitTypeUpdateSchema = z
 export type KitTypeUpdate = z.input<typeof kitTypeUpdateSchema>;
 
 const partFields = {
-  code: z
-    .string({ error: 'Enter a part code.' })
+  code: singleLine({ error: 'Enter a part code.' })
     .trim()
     .min(1, { error: 'Enter a part code.' })
     .max(64, { error: 'A part code is at most 64 characters.' }),
-  name: z
-    .string({ error: 'Enter a part name.' })
+  name: singleLine({ error: 'Enter a part name.' })
     .trim()
     .min(1, { error: 'Enter a part name.' })
     .max(200, { error: 'A part name is at most 200 characters.' }),
@@ -213,8 +208,7 @@ export const TUB_STATUS_LABELS: Record<TubStatus, string> = {
   retired: 'Retired',
 };
 
-const tubLabel = z
-  .string({ error: 'Enter a label for the tub, like Tub 3.' })
+const tubLabel = singleLine({ error: 'Enter a label for the tub, like Tub 3.' })
   .trim()
   .min(1, { error: 'Enter a label for the tub, like Tub 3.' })
   .max(60, { error: 'A tub label is at most 60 characters.' });
@@ -244,7 +238,7 @@ export const tubUpdateSchema = z
 export type TubUpdate = z.input<typeof tubUpdateSchema>;
 
 const countLine = z.object({
-  partCode: z.string({ error: 'Pick a part.' }).trim().min(1, { error: 'Pick a part.' }).max(64),
+  partCode: singleLine({ error: 'Pick a part.' }).trim().min(1, { error: 'Pick a part.' }).max(64),
   count: whole(1, MAX_PART_QTY),
 });
 const countLines = z
@@ -258,8 +252,7 @@ export const tubAuditCreateSchema = z.object({
   lessonId: uuidSchema.nullish(),
   missing: countLines,
   found: countLines,
-  note: z
-    .string({ error: 'The note must be text.' })
+  note: multiLine({ error: 'The note must be text.' })
     .trim()
     .max(2000, { error: 'A note is at most 2000 characters.' })
     .default(''),

@@ -4,6 +4,7 @@
  * 0–10000, a window of at most 480 minutes) so whatever is stored can be planned.
  */
 import * as z from 'zod';
+import { singleLine } from './text.js';
 import { uuidSchema } from './common.js';
 import {
   distinctIds,
@@ -179,8 +180,7 @@ export const MATERIAL_ONE_OF_MESSAGE = 'Pick a part or name a consumable (one of
 export const materialInputSchema = z
   .object(
     {
-      partCode: z
-        .string({ message: 'Enter a part code.' })
+      partCode: singleLine({ message: 'Enter a part code.' })
         .trim()
         .min(1, { message: 'Enter a part code.' })
         .max(64)

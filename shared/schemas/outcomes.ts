@@ -3,6 +3,7 @@
  * request bodies, the CSV row rules and the records the API answers with.
  */
 import * as z from 'zod';
+import { multiLine, singleLine } from './text.js';
 import { uuidSchema } from './common.js';
 
 /** The message when a request body is not a JSON object at all. */
@@ -11,8 +12,7 @@ const BODY = { message: 'Send the details as a JSON object.' };
 /** `POST /api/outcomes/frameworks`. */
 export const frameworkCreateSchema = z.object(
   {
-    name: z
-      .string({ message: 'Enter a name.' })
+    name: singleLine({ message: 'Enter a name.' })
       .trim()
       .min(1, { message: 'Enter a name.' })
       .max(200, { message: 'Use at most 200 characters.' }),
@@ -29,18 +29,16 @@ export const OUTCOME_CSV_MAX_BYTES = 2 * 1024 * 1024;
 
 /** One row of the outcomes CSV, after the header has mapped its columns. */
 export const outcomeRowSchema = z.object({
-  code: z
-    .string()
+  code: singleLine()
     .trim()
     .min(1, { message: 'Enter a code.' })
     .max(40, { message: 'A code is at most 40 characters.' }),
-  description: z
-    .string()
+  description: multiLine()
     .trim()
     .min(1, { message: 'Enter a description.' })
     .max(2000, { message: 'A description is at most 2000 characters.' }),
-  strand: z.string().trim().max(200, { message: 'A strand is at most 200 characters.' }),
-  yearBand: z.string().trim().max(40, { message: 'A year band is at most 40 characters.' }),
+  strand: singleLine().trim().max(200, { message: 'A strand is at most 200 characters.' }),
+  yearBand: singleLine().trim().max(40, { message: 'A year band is at most 40 characters.' }),
 });
 export type OutcomeRow = z.infer<typeof outcomeRowSchema>;
 
@@ -52,11 +50,11 @@ export const outcomeQuerySchema = z.object({
   /** Words looked for in the code, description and strand. */
   q: z.preprocess(
     blankToUndefined,
-    z.string().trim().max(200, { message: 'Use at most 200 characters.' }).optional(),
+    singleLine().trim().max(200, { message: 'Use at most 200 characters.' }).optional(),
   ),
   yearBand: z.preprocess(
     blankToUndefined,
-    z.string().trim().max(40, { message: 'Use at most 40 characters.' }).optional(),
+    singleLine().trim().max(40, { message: 'Use at most 40 characters.' }).optional(),
   ),
 });
 export type OutcomeQuery = z.infer<typeof outcomeQuerySchema>;

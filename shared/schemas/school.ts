@@ -3,6 +3,7 @@
  * calendar (terms, bell periods, non-teaching days). Used by the server and the client alike.
  */
 import * as z from 'zod';
+import { singleLine } from './text.js';
 import { uuidSchema } from './common.js';
 
 export const PAPER_SIZES = ['A4', 'Letter'] as const;
@@ -37,8 +38,7 @@ export function isIanaTimeZone(name: string): boolean {
   }
 }
 
-export const timeZoneSchema = z
-  .string({ error: 'Pick a time zone, like Australia/Adelaide.' })
+export const timeZoneSchema = singleLine({ error: 'Pick a time zone, like Australia/Adelaide.' })
   .trim()
   .refine(isIanaTimeZone, { error: 'Pick a time zone from the list, like Australia/Adelaide.' });
 
@@ -100,8 +100,7 @@ const clockSchema = z
   .string({ error: 'Enter a time like 09:10.' })
   .regex(CLOCK, { error: 'Enter a time like 09:10 (24-hour clock).' });
 const label = (what: string, max: number) =>
-  z
-    .string({ error: `Enter a name for the ${what}.` })
+  singleLine({ error: `Enter a name for the ${what}.` })
     .trim()
     .min(1, { error: `Enter a name for the ${what}.` })
     .max(max, { error: `A ${what} name is at most ${max} characters.` });
@@ -137,8 +136,7 @@ export const bellPeriodSchema = z
 export const nonTeachingDaySchema = z.object({
   id: uuidSchema.optional(),
   date: dateSchema,
-  reason: z
-    .string({ error: 'Enter a reason.' })
+  reason: singleLine({ error: 'Enter a reason.' })
     .trim()
     .max(200, { error: 'A reason is at most 200 characters.' })
     .default(''),
@@ -219,8 +217,7 @@ export const schoolSettingsUpdateSchema = z
     version: z
       .number({ error: 'Send the version you read.' })
       .refine((v) => Number.isInteger(v) && v >= 1, { error: 'Send the version you read.' }),
-    name: z
-      .string({ error: 'Enter the school name.' })
+    name: singleLine({ error: 'Enter the school name.' })
       .trim()
       .min(1, { error: 'Enter the school name.' })
       .max(120, { error: 'A school name is at most 120 characters.' }),

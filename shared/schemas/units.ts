@@ -4,6 +4,7 @@
  * messages the same way.
  */
 import * as z from 'zod';
+import { multiLine, singleLine } from './text.js';
 import { uuidSchema } from './common.js';
 
 /** The message when a request body is not a JSON object at all. */
@@ -11,8 +12,7 @@ const BODY = { message: 'Send the details as a JSON object.' };
 
 /** A trimmed, required line of text (`what` names it in the message: "Enter a title."). */
 export function requiredText(what: string, max: number) {
-  return z
-    .string({ message: `Enter ${what}.` })
+  return singleLine({ message: `Enter ${what}.` })
     .trim()
     .min(1, { message: `Enter ${what}.` })
     .max(max, { message: `Use at most ${max} characters.` });
@@ -20,17 +20,16 @@ export function requiredText(what: string, max: number) {
 
 /** Optional text, stored as '' when left empty. */
 export function plainText(max: number) {
-  return z
-    .string({ message: 'Enter text.' })
+  return singleLine({ message: 'Enter text.' })
     .trim()
     .max(max, { message: `Use at most ${max} characters.` });
 }
 
 /** Markdown is not trimmed: leading spaces can be meaningful (an indented code block). */
 export function markdownText(max: number) {
-  return z
-    .string({ message: 'Enter text.' })
-    .max(max, { message: `Use at most ${max.toLocaleString('en')} characters.` });
+  return multiLine({ message: 'Enter text.' }).max(max, {
+    message: `Use at most ${max.toLocaleString('en')} characters.`,
+  });
 }
 
 /** A whole number in [min, max]; one message for a missing value, a fraction or a bad range. */

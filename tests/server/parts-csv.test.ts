@@ -6,6 +6,7 @@ import { Browser, signedIn, testApp, type TestApp } from '../support/app.js';
 import { ADMIN, TEACHER } from '../support/planning.js';
 import { parts } from '../../server/db/schema/index.js';
 import { readPartsCsv, writePartsCsv } from '../../server/csv/index.js';
+import { SINGLE_LINE_MESSAGE } from '../../shared/schemas/text.js';
 
 let t: TestApp;
 before(async () => {
@@ -81,13 +82,22 @@ describe('reading the parts-list CSV: RFC 4180 §2', () => {
 
   it('rule 6: a field holding line breaks is enclosed in quotes; the line numbers of later rows stay right', () => {
     const text = 'code,name,qty\r\nA,"Two\r\nlines",1\r\nB,"Three\nshort\nlines",x\r\n';
-    const list = readPartsCsv('code,name,qty\r\nA,"Two\r\nlines",1\r\n').parts;
-    assert.equal(list[0]!.name, 'Two\nlines');
+    // Read as one field of one record (RFC 4180), then refused: a part name is one line
+    // (shared/schemas/text.ts singleLine), reported on the line where the record starts.
+    const one = readPartsCsv('code,name,qty\r\nA,"Two\r\nlines",1\r\n');
+    assert.deepEqual(
+      one.errors.map((e) => [e.line, e.column, e.message]),
+      [[2, 'name', SINGLE_LINE_MESSAGE]],
+    );
     const bad = readPartsCsv(text);
     // Line 1 header, lines 2–3 part A, part B starts on line 4.
     assert.deepEqual(
       bad.errors.map((e) => [e.line, e.column]),
-      [[4, 'qty']],
+      [
+        [2, 'name'],
+        [4, 'qty'],
+        [4, 'name'],
+      ],
     );
   });
 
@@ -243,8 +253,9 @@ describe('writing the parts-list CSV', () => {
     ]);
   });
 
-  it('reads back exactly what it wrote', () => {
-    assert.deepEqual(readPartsCsv(writePartsCsv(list)), { parts: list, errors: [] });
+  it('reads back exactly what it wrote (names of one line)', () => {
+    const oneLine = list.map((p) => ({ ...p, name: p.name.replace(/\n/g, ' ') }));
+    assert.deepEqual(readPartsCsv(writePartsCsv(oneLine)), { parts: oneLine, errors: [] });
   });
 });
 
@@ -308,6 +319,8 @@ describe('POST /api/kit-types/:id/parts/import', () => {
         [3, 'code', ''],
         [4, 'qty', ''],
         [4, 'category', ''],
+        // "Neg,\r\native" is one quoted field (RFC 4180) holding a line break: not one line.
+        [4, 'name', ''],
       ],
     );
     assert.deepEqual(
@@ -398,7 +411,7 @@ describe('GET /api/kit-types/:id/parts.csv', () => {
     const source = [
       'charge_minutes,code,name,colour,category,qty,compartment,small',
       '180,RT-1,"Hub, ""smart""",white,controller,1,A1,no',
-      ',RT-2,"Cable,\r\n20 cm",,cable,2,,yes',
+      ',RT-2,"Cable, 20 cm",,cable,2,,yes',
       ",RT-3,=1+2,@blue,other,5,'=B2,true",
       ',RT-4,Rim,,wheel,0,,',
     ].join('\r\n');
@@ -419,7 +432,7 @@ describe('GET /api/kit-types/:id/parts.csv', () => {
       csv,
       'a second export is the same file',
     );
-    assert.equal(first[1].name, 'Cable,\n20 cm');
+    assert.equal(first[1].name, 'Cable, 20 cm');
     assert.equal(first[2].name, '=1+2');
   });
 });
