@@ -1,6 +1,7 @@
 /** Builds the Express app (no listening here: main.ts listens, tests call supertest(app)). */
 import express, { type Express, type RequestHandler } from 'express';
 import helmet from 'helmet';
+import type { Store } from 'express-session';
 import { randomBytes } from 'node:crypto';
 import { existsSync, readFileSync } from 'node:fs';
 import path from 'node:path';
@@ -39,6 +40,8 @@ export interface AppOptions {
   pruneSessions?: boolean;
   /** Folder of the built client; the API alone is served when it is missing. */
   clientDir?: string;
+  /** The session store, when the caller closes it itself on shutdown (main.ts). */
+  sessionStore?: Store;
 }
 
 /** The API under /api: every route, then a JSON 404 and the one error handler. */
@@ -48,6 +51,7 @@ function api(ctx: AppContext, options: AppOptions): express.Router {
   router.use(express.json({ limit: '1mb' }));
   router.use(
     sessionMiddleware({
+      store: options.sessionStore,
       pool: ctx.pool,
       secret: ctx.config.sessionSecret,
       idleMinutes: ctx.config.sessionIdleMinutes,

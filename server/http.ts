@@ -1,6 +1,7 @@
 import type { ErrorRequestHandler, Request, RequestHandler } from 'express';
 import { z, type ZodType } from 'zod';
 import type { ApiErrorDetail } from '../shared/schemas/common.js';
+import { isDatabaseUnavailable, OUTAGE_RETRY_SECONDS } from './db/unavailable.js';
 
 /** An error with an HTTP status that the error middleware answers in the API's one shape. */
 export class HttpError extends Error {
@@ -55,6 +56,14 @@ export const jsonNotFound: RequestHandler = (_req, res) => {
     .json({ error: { code: 'not-found', message: 'There is nothing at this address.' } });
 };
 
+let lastOutageLog = 0;
+/** One line at most every 10 s while the database is down, not a stack per request. */
+function logOutage(err: unknown): void {
+  if (Date.now() - lastOutageLog < 10_000) return;
+  lastOutageLog = Date.now();
+  console.error('PostgreSQL is unreachable; answering 503:', (err as Error).message);
+}
+
 /** The last middleware: one error shape, never a stack trace. */
 export const errorHandler: ErrorRequestHandler = (err, _req, res, next) => {
   // Once an answer has started (a client that went away mid-response), only Express can end it.
@@ -91,6 +100,18 @@ export const errorHandler: ErrorRequestHandler = (err, _req, res, next) => {
     res
       .status(status)
       .json({ error: { code: 'bad-request', message: 'The request could not be read.' } });
+    return;
+  }
+  if (isDatabaseUnavailable(err)) {
+    logOutage(err);
+    res.setHeader('Retry-After', String(OUTAGE_RETRY_SECONDS));
+    res.status(503).json({
+      error: {
+        code: 'database-unavailable',
+        message:
+          'Trayplan cannot reach its database just now. Nothing was changed; try again in a moment.',
+      },
+    });
     return;
   }
   console.error('Unexpected error:', err);

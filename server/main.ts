@@ -9,12 +9,14 @@ import { createApp } from './app.js';
 import { createMailTransport, startOutboxWorker, type OutboxWorker } from './mail/outbox.js';
 import type { DevMail } from '../shared/schemas/members.js';
 import { closePdfPool } from './pdf/pool.js';
+import { createSessionStore } from './auth/session.js';
+import { drainable } from './drain.js';
 
 export interface Running {
   server: Server;
   database: Database;
   outbox: OutboxWorker;
-  /** Finishes in-flight requests, stops the outbox and closes the pool. */
+  /** Drains the server (every request already sent is answered), stops the workers, closes the pool. */
   close: () => Promise<void>;
 }
 
@@ -33,17 +35,22 @@ export async function serve(
     createMailTransport(config.smtpUrl),
     config.mailFrom,
   );
-  const app = createApp({
-    db: database.db,
-    pool: database.pool,
-    config,
-    kickMail: () => void outbox.kick(),
-    devMail: extra.devMail,
-  });
+  const sessionStore = createSessionStore(database.pool, true);
+  const app = createApp(
+    {
+      db: database.db,
+      pool: database.pool,
+      config,
+      kickMail: () => void outbox.kick(),
+      devMail: extra.devMail,
+    },
+    { sessionStore },
+  );
   const server = await new Promise<Server>((resolve, reject) => {
     const s = app.listen(config.port, config.host, () => resolve(s));
     s.once('error', reject);
   });
+  const drain = drainable(server);
   void outbox.kick();
   let closing: Promise<void> | null = null;
   return {
@@ -52,13 +59,11 @@ export async function serve(
     outbox,
     close: () =>
       (closing ??= (async () => {
-        await new Promise<void>((resolve) => {
-          server.close(() => resolve());
-          server.closeIdleConnections();
-          // Requests still running after 10 s are cut so a stop never hangs.
-          setTimeout(() => server.closeAllConnections(), 10_000).unref();
-        });
+        // In order: no new connections, every request already sent answered; then the workers
+        // that use the pool; then the session store (its prune timer) and last the pool itself.
+        await drain({ idleGraceMs: 1000, hardLimitMs: 10_000 });
         await Promise.all([outbox.stop(), closePdfPool()]);
+        sessionStore.close();
         await database.pool.end();
       })()),
   };

@@ -26,7 +26,23 @@ declare global {
   }
 }
 
+/** The PostgreSQL session store; close() it before ending the pool (it prunes on a timer). */
+export function createSessionStore(
+  pool: pg.Pool,
+  prune: boolean,
+): session.Store & { close(): void } {
+  const PgStore = connectPgSimple(session);
+  return new PgStore({
+    pool,
+    tableName: 'session',
+    createTableIfMissing: false,
+    pruneSessionInterval: prune ? 15 * 60 : false,
+  });
+}
+
 export interface SessionOptions {
+  /** The store (main.ts makes it so it can close it in order); one is made when left out. */
+  store?: session.Store;
   pool: pg.Pool;
   secret: string;
   idleMinutes: number;
@@ -37,19 +53,13 @@ export interface SessionOptions {
 
 /** express-session stored in PostgreSQL; rolling expiry gives the idle timeout. */
 export function sessionMiddleware(o: SessionOptions): RequestHandler {
-  const PgStore = connectPgSimple(session);
   return session({
     name: 'trayplan.sid',
     secret: o.secret,
     resave: false,
     saveUninitialized: false,
     rolling: true,
-    store: new PgStore({
-      pool: o.pool,
-      tableName: 'session',
-      createTableIfMissing: false,
-      pruneSessionInterval: o.prune ? 15 * 60 : false,
-    }),
+    store: o.store ?? createSessionStore(o.pool, o.prune),
     cookie: {
       httpOnly: true,
       sameSite: 'lax',

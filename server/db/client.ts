@@ -15,7 +15,9 @@ export interface Database {
 
 /** Opens a pool and a Drizzle handle with snake_case columns. */
 export function openDatabase(url: string, max = 10): Database {
-  const pool = new pg.Pool({ connectionString: url, max });
+  // A connection attempt gives up after 5 s so requests answer 503 during an outage instead of
+  // waiting; broken clients are dropped by the pool and new ones made once PostgreSQL is back.
+  const pool = new pg.Pool({ connectionString: url, max, connectionTimeoutMillis: 5000 });
   // An idle client losing its connection must not crash the process.
   pool.on('error', (err) => console.error('PostgreSQL pool error:', err.message));
   return { pool, db: drizzle(pool, { schema, casing: 'snake_case' }) };
