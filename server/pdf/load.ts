@@ -18,13 +18,9 @@ import {
   units,
   users,
 } from '../db/schema/index.js';
-import { loadPrepInput, toLocal } from '../prep/load.js';
-import {
-  computePrepPlan,
-  naturalCompare,
-  PrepInputError,
-  type PrepPlan,
-} from '../../shared/prep/index.js';
+import { toLocal } from '../planning/format.js';
+import { planLesson } from '../prep/plan-lesson.js';
+import { naturalCompare } from '../../shared/prep/index.js';
 import type { LessonPackModel, PackOutcome, PrintContext, UnitOverviewModel } from './model.js';
 
 /** The school's paper, clock and name, with the moment of the request. */
@@ -89,8 +85,9 @@ export async function loadLessonPack(tx: Tx, lessonId: string): Promise<LessonPa
     .leftJoin(relief, eq(relief.id, lessons.reliefTeacherId))
     .where(eq(lessons.id, lessonId));
   if (!row) return null;
-  const input = await loadPrepInput(tx, lessonId);
-  if (!input) return null;
+  const planned = await planLesson(tx, lessonId);
+  if (!planned) return null;
+  const { input } = planned;
   const [{ lessonCount }] = (await tx
     .select({ lessonCount: count() })
     .from(lessons)
@@ -102,14 +99,9 @@ export async function loadLessonPack(tx: Tx, lessonId: string): Promise<LessonPa
     .where(eq(classTeachers.classId, row.classId))
     .orderBy(asc(users.name));
 
-  let plan: PrepPlan | null = null;
-  let problems: string[] = [];
-  try {
-    plan = computePrepPlan(input);
-  } catch (err) {
-    if (!(err instanceof PrepInputError)) throw err;
-    problems = err.issues.map((i) => i.message);
-  }
+  const plan = planned.plannable ? planned.plan : null;
+  const problems = planned.plannable ? [] : planned.problems.map((p) => p.message);
+  // The parts the printed trays list: the pack's parts legend names only these.
   const named = new Set<string>();
   if (plan) {
     for (const g of plan.groups) for (const l of g.lines) named.add(l.partCode);

@@ -11,7 +11,7 @@ import {
 import { check, invalid, materialProblems } from './checks.js';
 import type { LessonFacts } from './access.js';
 import { activityDetail } from './lessons.js';
-import { stale } from './versions.js';
+import { stale, versionedUpdate } from '../db/versions.js';
 
 function rawMaterials(body: unknown): unknown {
   return body && typeof body === 'object' ? (body as { materials?: unknown }).materials : undefined;
@@ -86,11 +86,13 @@ export async function updateActivity(
   details.push(...(await materialProblems(tx, kitTypeId, rawMaterials(body))));
   if (!data || details.length) throw invalid(details);
   const { version, materials: list, ...fields } = data;
-  const [updated] = await tx
-    .update(activities)
-    .set({ ...fields, version: sql`${activities.version} + 1` })
-    .where(and(eq(activities.id, activityId), eq(activities.version, version)))
-    .returning({ id: activities.id });
+  const updated = await versionedUpdate(
+    tx,
+    activities,
+    eq(activities.id, activityId),
+    version,
+    fields,
+  );
   if (!updated) throw stale('activity', await activityDetail(tx, activityId));
   if (list) {
     await tx.delete(materials).where(eq(materials.activityId, activityId));

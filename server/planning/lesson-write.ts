@@ -11,7 +11,7 @@ import {
 import { check, defaultTubIds, invalid, lessonRefProblems, partCodesOf } from './checks.js';
 import { lessonDetail } from './lessons.js';
 import { toLocal } from './format.js';
-import { stale } from './versions.js';
+import { stale, versionedUpdate } from '../db/versions.js';
 
 type Raw = Record<string, unknown>;
 
@@ -106,13 +106,16 @@ export async function updateLesson(
   }
   if (!data || details.length) throw invalid(details);
   const { version, tubIds, ...fields } = data;
-  const [updated] = await tx
-    .update(lessons)
-    .set({ ...fields, version: sql`${lessons.version} + 1`, updatedAt: sql`now()` })
-    .where(and(eq(lessons.id, lessonId), eq(lessons.version, version)))
-    .returning({ id: lessons.id, kitTypeId: lessons.kitTypeId });
+  const updated = await versionedUpdate(tx, lessons, eq(lessons.id, lessonId), version, {
+    ...fields,
+    updatedAt: sql`now()`,
+  });
   if (!updated) throw stale('lesson', await lessonDetail(tx, actor, lessonId));
-  const rebook = tubIds ?? (kitChanged ? await defaultTubIds(tx, updated.kitTypeId) : undefined);
+  const [saved] = await tx
+    .select({ kitTypeId: lessons.kitTypeId })
+    .from(lessons)
+    .where(eq(lessons.id, lessonId));
+  const rebook = tubIds ?? (kitChanged ? await defaultTubIds(tx, saved!.kitTypeId) : undefined);
   if (rebook) {
     await tx.delete(lessonTubs).where(eq(lessonTubs.lessonId, lessonId));
     if (rebook.length)

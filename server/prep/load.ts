@@ -16,58 +16,12 @@ import {
   schools,
   tubMissing,
   tubs,
-  unitCoauthors,
   units,
 } from '../db/schema/index.js';
 import type { PrepInput } from '../../shared/prep/index.js';
-import type { UnitFacts } from '../auth/policy.js';
-import { mergePrep } from '../routes/school.js';
-
-/** `2026-07-28 11:10:00` (PostgreSQL) → `2026-07-28T11:10` (the engine's local form). */
-export function toLocal(value: string): string {
-  return value.replace(' ', 'T').slice(0, 16);
-}
-
-export interface LessonFacts {
-  id: string;
-  schoolId: string;
-  unitId: string;
-  reliefTeacherId: string | null;
-  unit: UnitFacts;
-}
-
-/** What the policy needs to decide on a lesson, or null when there is no such lesson. */
-export async function lessonFacts(tx: Tx, lessonId: string): Promise<LessonFacts | null> {
-  const [row] = await tx
-    .select({
-      id: lessons.id,
-      schoolId: lessons.schoolId,
-      unitId: lessons.unitId,
-      reliefTeacherId: lessons.reliefTeacherId,
-      ownerId: units.ownerId,
-      visibility: units.visibility,
-    })
-    .from(lessons)
-    .innerJoin(units, eq(units.id, lessons.unitId))
-    .where(eq(lessons.id, lessonId));
-  if (!row) return null;
-  const co = await tx
-    .select({ userId: unitCoauthors.userId })
-    .from(unitCoauthors)
-    .where(eq(unitCoauthors.unitId, row.unitId));
-  return {
-    id: row.id,
-    schoolId: row.schoolId,
-    unitId: row.unitId,
-    reliefTeacherId: row.reliefTeacherId,
-    unit: {
-      schoolId: row.schoolId,
-      ownerId: row.ownerId,
-      visibility: row.visibility,
-      coauthorIds: co.map((c) => c.userId),
-    },
-  };
-}
+import { mergePrep } from '../school/settings.js';
+import { toLocal } from '../planning/format.js';
+import { tubStock } from '../kits/stock.js';
 
 /** The engine's input for one lesson as stored now. */
 export async function loadPrepInput(tx: Tx, lessonId: string): Promise<PrepInput | null> {
@@ -130,8 +84,12 @@ export async function loadPrepInput(tx: Tx, lessonId: string): Promise<PrepInput
         .orderBy(asc(materials.position))
     : [];
 
-  const missing = new Map<string, number>();
-  for (const m of missingRows) missing.set(`${m.tubId}\u0000${m.partCode}`, m.count);
+  const missingByTub = new Map<string, Map<string, number>>();
+  for (const m of missingRows) {
+    const counts = missingByTub.get(m.tubId) ?? new Map<string, number>();
+    counts.set(m.partCode, m.count);
+    missingByTub.set(m.tubId, counts);
+  }
   const byActivity = new Map<string, typeof materialRows>();
   for (const m of materialRows) {
     const list = byActivity.get(m.activityId) ?? [];
@@ -185,12 +143,7 @@ export async function loadPrepInput(tx: Tx, lessonId: string): Promise<PrepInput
       label: t.label,
       controllerLabel: t.controllerLabel,
       status: t.status as 'ready',
-      stock: Object.fromEntries(
-        partRows.map((p) => [
-          p.code,
-          Math.max(0, p.qty - (missing.get(`${t.id}\u0000${p.code}`) ?? 0)),
-        ]),
-      ),
+      stock: tubStock(partRows, missingByTub.get(t.id) ?? new Map()),
     })),
     activities: activityRows.map((a) => ({
       title: a.title,

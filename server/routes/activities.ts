@@ -16,7 +16,7 @@ import { updateActivity } from '../planning/activity-write.js';
 import { activityDetail } from '../planning/lessons.js';
 import { attachmentDisposition, safeFilename } from '../planning/upload.js';
 import { requireFile, singleFileUpload, sniffUpload } from '../uploads/index.js';
-import { deleteVersion, stale } from '../planning/versions.js';
+import { deleteVersion, stale } from '../db/versions.js';
 
 /** More than this many files on one activity is a mistake, not build instructions. */
 const MAX_ATTACHMENTS = 20;

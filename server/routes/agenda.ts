@@ -21,8 +21,9 @@ import {
 import { parse } from '../http.js';
 import { requireActor } from '../auth/session.js';
 import { authorsUnit, canReadLesson, type Actor } from '../auth/policy.js';
-import { computePrepPlan, intervalsOverlap, type PrepPlan } from '../../shared/prep/index.js';
-import { loadPrepInput, toLocal } from '../prep/load.js';
+import { intervalsOverlap, type PrepPlan } from '../../shared/prep/index.js';
+import { toLocal } from '../planning/format.js';
+import { planLesson } from '../prep/plan-lesson.js';
 
 const weekQuery = z.object({
   week: z
@@ -115,16 +116,13 @@ export function agendaRouter(ctx: AppContext): Router {
     const result = await ctx.db.transaction(
       async (tx) => {
         const rows = await readableLessons(tx, actor, from, to, q.mine === 'true');
-        const out = [];
+        const out: { lesson: ReturnType<typeof lessonSummary>; plan: PrepPlan | null }[] = [];
         for (const r of rows) {
-          const input = await loadPrepInput(tx, r.id);
-          let plan: PrepPlan | null = null;
-          try {
-            plan = input ? computePrepPlan(input) : null;
-          } catch {
-            plan = null; // a lesson the engine cannot plan yet shows without tasks
-          }
-          out.push({ lesson: lessonSummary(r), plan });
+          // Access was decided by readableLessons (the policy). A lesson the engine refuses shows
+          // without tasks, listed as not plannable; any other error fails the request.
+          const planned = await planLesson(tx, r.id);
+          if (!planned) continue; // deleted since the list was read: impossible in one snapshot
+          out.push({ lesson: lessonSummary(r), plan: planned.plannable ? planned.plan : null });
         }
         return out;
       },

@@ -13,6 +13,7 @@ import { HttpError, notFound, parse, parseParams } from '../http.js';
 import { authorize, type Action } from '../auth/policy.js';
 import { requireActor } from '../auth/session.js';
 import { readPartsCsv, writePartsCsv } from '../csv/index.js';
+import { replacementsRouter } from './replacements.js';
 import { requireFile, singleFileUpload, sniffUpload } from '../uploads/index.js';
 import { idParamsSchema, uuidSchema } from '../../shared/schemas/common.js';
 import {
@@ -187,6 +188,7 @@ const codeParamsSchema = z.object({ id: uuidSchema, code: z.string().min(1).max(
 /** Kit types, their parts list (JSON, CSV import and export) and part photos. */
 export function kitTypesRouter(ctx: AppContext): Router {
   const router = Router();
+  router.use(replacementsRouter(ctx));
 
   /** Role check, then the kit type must be the school's: both before an upload is read. */
   const kitFor =

@@ -1,7 +1,8 @@
 /**
  * Lessons: read (with activities, materials and attachments in order), edit with a version,
  * delete, reorder activities, and add an activity. A lesson is read as its unit is (or by the
- * relief teacher it is assigned to) and edited by its unit's authors.
+ * relief teacher it is assigned to) and edited by its unit's authors. The lesson's prep plan
+ * (./prep.ts) and printables (./printables.ts) are sub-routers of this one.
  */
 import { Router } from 'express';
 import { eq, sql } from 'drizzle-orm';
@@ -15,10 +16,14 @@ import { editableLesson, readableLesson } from '../planning/access.js';
 import { createActivity } from '../planning/activity-write.js';
 import { updateLesson } from '../planning/lesson-write.js';
 import { lessonDetail } from '../planning/lessons.js';
-import { deleteVersion, sameMembers, stale, staleOrder, writeOrder } from '../planning/versions.js';
+import { prepRouter } from './prep.js';
+import { lessonPrintablesRouter } from './printables.js';
+import { deleteVersion, sameMembers, stale, staleOrder, writeOrder } from '../db/versions.js';
 
 export function lessonsRouter(ctx: AppContext): Router {
   const router = Router();
+  router.use(prepRouter(ctx));
+  router.use(lessonPrintablesRouter(ctx));
 
   router.get('/:id', async (req, res) => {
     const actor = requireActor(req);

@@ -3,8 +3,7 @@
  * calendar of a unit. Each request reads the data in one read-only snapshot, computes the prep
  * plan, and (for PDFs) hands a plain JSON job to the worker pool; nothing is cached, so a file
  * always matches what is stored at that moment. Read access as for the lesson or unit itself.
- *
- * Mounted at the API root (before the lessons routers), so paths are written out in full.
+ * The lessons router mounts the lesson's files, the units router the unit's.
  */
 import { Router, type Request, type Response } from 'express';
 import type { AppContext } from '../context.js';
@@ -16,17 +15,16 @@ import { idParamsSchema } from '../../shared/schemas/common.js';
 import type { LessonPackModel, RenderJob } from '../pdf/model.js';
 import { loadLessonPack, loadPrintContext, loadUnitPack } from '../pdf/load.js';
 import { PdfBusyError, renderInPool } from '../pdf/pool.js';
-import { attachment, lessonFileStem, unitFileStem } from '../pdf/names.js';
+import { lessonFileStem, unitFileStem } from '../pdf/names.js';
+import { notPlannable } from '../prep/plan-lesson.js';
 import { prepCalendar } from '../calendar/prep-calendar.js';
 
 type Snapshot = <T>(work: (tx: Tx) => Promise<T>) => Promise<T>;
 
 function unplannable(lesson: LessonPackModel): HttpError {
-  return new HttpError(
-    422,
-    'lesson-not-plannable',
-    'This lesson cannot be planned yet, so there is nothing to print.',
+  return notPlannable(
     lesson.problems.map((message) => ({ path: '', message })),
+    'This lesson cannot be planned yet, so there is nothing to print.',
   );
 }
 
@@ -56,18 +54,22 @@ async function render(res: Response, job: RenderJob): Promise<Uint8Array | null>
 }
 
 function send(res: Response, type: string, filename: string, body: Uint8Array | string): void {
+  res.attachment(filename);
   res.setHeader('Content-Type', type);
-  res.setHeader('Content-Disposition', attachment(filename));
   res.send(
     typeof body === 'string' ? body : Buffer.from(body.buffer, body.byteOffset, body.byteLength),
   );
 }
 
-/** The printables routes (see the file comment). */
-export function printablesRouter(ctx: AppContext): Router {
-  const router = Router();
-  const snapshot: Snapshot = (work) =>
+function snapshotOf(ctx: AppContext): Snapshot {
+  return (work) =>
     ctx.db.transaction(work, { isolationLevel: 'repeatable read', accessMode: 'read only' });
+}
+
+/** A lesson's pack, tray labels and prep calendar, mounted inside the lessons router. */
+export function lessonPrintablesRouter(ctx: AppContext): Router {
+  const router = Router();
+  const snapshot = snapshotOf(ctx);
   const groupUrl = (lessonId: string, group: number) =>
     `${ctx.config.appUrl.replace(/\/+$/, '')}/lessons/${lessonId}/prep?group=${group}`;
   const lessonUrl = (lessonId: string) =>
@@ -87,26 +89,14 @@ export function printablesRouter(ctx: AppContext): Router {
     });
   }
 
-  async function unitFor(req: Request) {
-    const actor = requireActor(req);
-    const { id } = parseParams(idParamsSchema, req);
-    const generatedAt = new Date();
-    return snapshot(async (tx) => {
-      await readableUnit(tx, actor, id);
-      const unit = await loadUnitPack(tx, id);
-      if (!unit) throw notFound('That unit');
-      return { ...unit, print: await loadPrintContext(tx, actor.schoolId, generatedAt) };
-    });
-  }
-
-  router.get('/lessons/:id/pack.pdf', async (req, res) => {
+  router.get('/:id/pack.pdf', async (req, res) => {
     const { lesson, print } = await lessonFor(req);
     if (!lesson.plan) throw unplannable(lesson);
     const bytes = await render(res, { kind: 'lesson-pack', print, lesson });
     if (bytes) send(res, 'application/pdf', `${lessonFileStem(lesson)}.pdf`, bytes);
   });
 
-  router.get('/lessons/:id/labels.pdf', async (req, res) => {
+  router.get('/:id/labels.pdf', async (req, res) => {
     const { lesson, print } = await lessonFor(req);
     const plan = lesson.plan;
     if (!plan) throw unplannable(lesson);
@@ -120,7 +110,7 @@ export function printablesRouter(ctx: AppContext): Router {
     if (bytes) send(res, 'application/pdf', `${lessonFileStem(lesson)}-tray-labels.pdf`, bytes);
   });
 
-  router.get('/lessons/:id/prep.ics', async (req, res) => {
+  router.get('/:id/prep.ics', async (req, res) => {
     const { lesson, print } = await lessonFor(req);
     if (!lesson.plan) throw unplannable(lesson);
     const text = prepCalendar({
@@ -133,7 +123,29 @@ export function printablesRouter(ctx: AppContext): Router {
     send(res, 'text/calendar; charset=utf-8', `${lessonFileStem(lesson)}-prep.ics`, text);
   });
 
-  router.get('/units/:id/pack.pdf', async (req, res) => {
+  return router;
+}
+
+/** A unit's pack and prep calendar, mounted inside the units router. */
+export function unitPrintablesRouter(ctx: AppContext): Router {
+  const router = Router();
+  const snapshot = snapshotOf(ctx);
+  const lessonUrl = (lessonId: string) =>
+    `${ctx.config.appUrl.replace(/\/+$/, '')}/lessons/${lessonId}/prep`;
+
+  async function unitFor(req: Request) {
+    const actor = requireActor(req);
+    const { id } = parseParams(idParamsSchema, req);
+    const generatedAt = new Date();
+    return snapshot(async (tx) => {
+      await readableUnit(tx, actor, id);
+      const unit = await loadUnitPack(tx, id);
+      if (!unit) throw notFound('That unit');
+      return { ...unit, print: await loadPrintContext(tx, actor.schoolId, generatedAt) };
+    });
+  }
+
+  router.get('/:id/pack.pdf', async (req, res) => {
     const { unit, lessons, print } = await unitFor(req);
     const bytes = await render(res, { kind: 'unit-pack', print, unit, lessons });
     const stem = unitFileStem(
@@ -143,7 +155,7 @@ export function printablesRouter(ctx: AppContext): Router {
     if (bytes) send(res, 'application/pdf', `${stem}-unit-pack.pdf`, bytes);
   });
 
-  router.get('/units/:id/prep.ics', async (req, res) => {
+  router.get('/:id/prep.ics', async (req, res) => {
     const { unit, lessons, print } = await unitFor(req);
     const text = prepCalendar({
       name: `Trayplan prep: ${unit.title}`,

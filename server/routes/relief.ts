@@ -5,7 +5,7 @@ import type { AppContext } from '../context.js';
 import { classes, lessons, units, users } from '../db/schema/index.js';
 import { forbidden } from '../http.js';
 import { requireActor } from '../auth/session.js';
-import { toLocal } from '../prep/load.js';
+import { toLocal } from '../planning/format.js';
 import { reliefDay } from '../sharing/today.js';
 
 export function reliefRouter(ctx: AppContext): Router {

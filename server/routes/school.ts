@@ -18,78 +18,9 @@ import {
 import { HttpError, notFound, parse } from '../http.js';
 import { authorize } from '../auth/policy.js';
 import { requireActor } from '../auth/session.js';
-import {
-  DEFAULT_PREP,
-  prepAllowancesSchema,
-  schoolSettingsUpdateSchema,
-  timeZoneNames,
-  type PaperSize,
-  type PrepAllowances,
-  type SchoolSettings,
-} from '../../shared/schemas/school.js';
-
-/**
- * Stored allowances over the defaults, key by key: a key that is missing, or that an older
- * release stored out of today's range, takes its default rather than breaking every prep plan.
- */
-export function mergePrep(stored: unknown): PrepAllowances {
-  const merged: PrepAllowances = { ...DEFAULT_PREP };
-  if (stored && typeof stored === 'object') {
-    for (const key of Object.keys(DEFAULT_PREP) as (keyof PrepAllowances)[]) {
-      const field = prepAllowancesSchema.shape[key].safeParse(
-        (stored as Record<string, unknown>)[key],
-      );
-      if (field.success) merged[key] = field.data;
-    }
-  }
-  return merged;
-}
-
-/** The settings as GET /api/school answers them (a missing settings row is version 1). */
-export async function loadSchoolSettings(tx: Tx, schoolId: string): Promise<SchoolSettings> {
-  const [school] = await tx.select().from(schools).where(eq(schools.id, schoolId));
-  if (!school) throw notFound('That school');
-  const [settings] = await tx
-    .select()
-    .from(schoolSettings)
-    .where(eq(schoolSettings.schoolId, schoolId));
-  const termRows = await tx
-    .select()
-    .from(terms)
-    .where(eq(terms.schoolId, schoolId))
-    .orderBy(asc(terms.startsOn));
-  const periodRows = await tx
-    .select()
-    .from(bellPeriods)
-    .where(eq(bellPeriods.schoolId, schoolId))
-    .orderBy(asc(bellPeriods.position), asc(bellPeriods.startsAt));
-  const dayRows = await tx
-    .select()
-    .from(nonTeachingDays)
-    .where(eq(nonTeachingDays.schoolId, schoolId))
-    .orderBy(asc(nonTeachingDays.date));
-  return {
-    id: school.id,
-    name: school.name,
-    timezone: school.timezone,
-    paperSize: (school.paperSize === 'Letter' ? 'Letter' : 'A4') as PaperSize,
-    prep: mergePrep(settings?.prep),
-    terms: termRows.map((t) => ({
-      id: t.id,
-      name: t.name,
-      startsOn: t.startsOn,
-      endsOn: t.endsOn,
-    })),
-    periods: periodRows.map((p) => ({
-      id: p.id,
-      name: p.name,
-      startsAt: p.startsAt,
-      endsAt: p.endsAt,
-    })),
-    nonTeachingDays: dayRows.map((d) => ({ id: d.id, date: d.date, reason: d.reason })),
-    version: settings?.version ?? 1,
-  };
-}
+import { schoolSettingsUpdateSchema, timeZoneNames } from '../../shared/schemas/school.js';
+import { loadSchoolSettings } from '../school/settings.js';
+import { stale, versionedUpdate } from '../db/versions.js';
 
 /** Ids the form sent that really are this school's rows; any other id is treated as new. */
 async function keptIds(
@@ -206,25 +137,19 @@ export function schoolRouter(ctx: AppContext): Router {
     const school = await ctx.db.transaction(async (tx) => {
       // A school without a settings row is at version 1: make the row, so the check can lock it.
       await tx.insert(schoolSettings).values({ schoolId: actor.schoolId }).onConflictDoNothing();
-      const saved = await tx
-        .update(schoolSettings)
-        .set({ prep: body.prep, version: sql`${schoolSettings.version} + 1` })
-        .where(
-          and(
-            eq(schoolSettings.schoolId, actor.schoolId),
-            eq(schoolSettings.version, body.version),
-          ),
-        )
-        .returning({ version: schoolSettings.version });
-      if (!saved.length) {
-        const current = await loadSchoolSettings(tx, actor.schoolId);
-        throw new HttpError(
-          409,
-          'stale',
+      const saved = await versionedUpdate(
+        tx,
+        schoolSettings,
+        eq(schoolSettings.schoolId, actor.schoolId),
+        body.version,
+        { prep: body.prep },
+      );
+      if (!saved) {
+        throw stale(
+          'school settings',
+          await loadSchoolSettings(tx, actor.schoolId),
           'Someone saved the school settings after you opened them. ' +
             'Reload to see their changes, then make yours again.',
-          undefined,
-          { current },
         );
       }
       await tx

@@ -1,7 +1,8 @@
 /**
  * Units: create, list ("My units" and the school's library), read, edit with a version, delete
  * with their lessons, reorder lessons, and add a lesson. Who may do what is the policy's answer
- * (server/auth/policy.ts) through server/planning/access.ts.
+ * (server/auth/policy.ts) through server/planning/access.ts. The unit pack and prep calendar
+ * (./printables.ts) are a sub-router of this one.
  */
 import { Router } from 'express';
 import { and, eq, sql } from 'drizzle-orm';
@@ -21,11 +22,20 @@ import { editableUnit, readableUnit } from '../planning/access.js';
 import { check, invalid } from '../planning/checks.js';
 import { createLesson } from '../planning/lesson-write.js';
 import { listUnits, unitDetail } from '../planning/units.js';
+import { unitPrintablesRouter } from './printables.js';
 import { coauthorProblems, outcomeProblems } from '../planning/unit-checks.js';
-import { deleteVersion, sameMembers, stale, staleOrder, writeOrder } from '../planning/versions.js';
+import {
+  deleteVersion,
+  sameMembers,
+  stale,
+  staleOrder,
+  versionedUpdate,
+  writeOrder,
+} from '../db/versions.js';
 
 export function unitsRouter(ctx: AppContext): Router {
   const router = Router();
+  router.use(unitPrintablesRouter(ctx));
 
   router.post('/', async (req, res) => {
     const actor = requireActor(req);
@@ -74,11 +84,10 @@ export function unitsRouter(ctx: AppContext): Router {
       details.push(...(await coauthorProblems(tx, actor.schoolId, facts.ownerId, raw.coauthorIds)));
       if (!data || details.length) throw invalid(details);
       const { version, outcomeIds, coauthorIds, ...fields } = data;
-      const [updated] = await tx
-        .update(units)
-        .set({ ...fields, version: sql`${units.version} + 1`, updatedAt: sql`now()` })
-        .where(and(eq(units.id, id), eq(units.version, version)))
-        .returning({ id: units.id });
+      const updated = await versionedUpdate(tx, units, eq(units.id, id), version, {
+        ...fields,
+        updatedAt: sql`now()`,
+      });
       if (!updated) throw stale('unit', await unitDetail(tx, actor, id));
       if (outcomeIds) {
         await tx.delete(unitOutcomes).where(eq(unitOutcomes.unitId, id));

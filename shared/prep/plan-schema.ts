@@ -140,3 +140,23 @@ export type PrepTimeline = z.infer<typeof prepTimelineSchema>;
 export type PrepTask = z.infer<typeof prepTaskSchema>;
 export type PrepTaskKind = (typeof TASK_KINDS)[number];
 export type PrepPlan = z.infer<typeof prepPlanSchema>;
+
+/**
+ * `GET /api/lessons/:id/prep`: the plan of PREP-RULES.md plus the name of every part code that
+ * appears in it, so a screen can name parts without loading the kit type's whole parts list.
+ */
+export const lessonPrepSchema = prepPlanSchema.extend({
+  partNames: z.record(z.string(), z.string()),
+});
+export type LessonPrep = z.infer<typeof lessonPrepSchema>;
+
+/** Every part code a plan mentions (trays, shortfalls, borrows, suggestions). */
+export function planPartCodes(plan: PrepPlan): Set<string> {
+  const codes = new Set<string>();
+  for (const g of plan.groups) for (const l of g.lines) codes.add(l.partCode);
+  for (const l of [...plan.classTray.lines, ...plan.sparesTray.lines]) codes.add(l.partCode);
+  for (const s of plan.shortfalls) codes.add(s.partCode);
+  for (const b of plan.borrows) codes.add(b.partCode);
+  for (const s of plan.suggestions) if (s.kind === 'part') codes.add(s.partCode);
+  return codes;
+}

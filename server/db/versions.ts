@@ -3,22 +3,46 @@
  * matches that version, so of two people saving at once exactly one wins and the other hears
  * 409 with the record as it now is (RFC 9110 §15.5.10), never a silent overwrite.
  */
-import { sql } from 'drizzle-orm';
-import type { PgTable } from 'drizzle-orm/pg-core';
-import type { Tx } from '../db/client.js';
+import { and, eq, sql, type SQL } from 'drizzle-orm';
+import type { PgColumn, PgTable, PgUpdateSetSource } from 'drizzle-orm/pg-core';
+import type { Tx } from './client.js';
 import { z } from 'zod';
 import { HttpError, parse } from '../http.js';
 import { versionSchema } from '../../shared/schemas/units.js';
 
-/** The 409 of a stale version, carrying the current record. */
-export function stale(what: string, current: unknown): HttpError {
+/** The 409 of a stale version, carrying the current record: the API's one code for it. */
+export function stale(what: string, current: unknown, message?: string): HttpError {
   return new HttpError(
     409,
     'stale-version',
-    `Someone changed this ${what} since you loaded it. Reload to see their changes, then apply yours again.`,
+    message ??
+      `Someone changed this ${what} since you loaded it. Reload to see their changes, then apply yours again.`,
     undefined,
     { current },
   );
+}
+
+type VersionedTable = PgTable & { version: PgColumn };
+
+/**
+ * The one versioned update: sets `set` and bumps `version` on the row(s) matching `where` whose
+ * version is `version` (any version when it is undefined, for changes that carry none, like a
+ * CSV import). Returns whether a row matched; when not, the caller answers `stale(...)` with the
+ * record as it now is (or 404 if it is gone).
+ */
+export async function versionedUpdate<T extends VersionedTable>(
+  tx: Tx,
+  table: T,
+  where: SQL | undefined,
+  version: number | undefined,
+  set: PgUpdateSetSource<T> = {},
+): Promise<boolean> {
+  const saved = await tx
+    .update(table)
+    .set({ ...set, version: sql`${table.version} + 1` } as PgUpdateSetSource<T>)
+    .where(and(where, version === undefined ? undefined : eq(table.version, version)))
+    .returning({ version: table.version });
+  return saved.length > 0;
 }
 
 /** The 409 of a reorder whose list no longer matches the children (one was added or removed). */

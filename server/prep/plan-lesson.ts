@@ -1,0 +1,55 @@
+/**
+ * The one way to plan a stored lesson: load the engine's input, run the engine, and report a
+ * lesson the engine refuses in one shape. Access is not decided here: every caller asks the
+ * policy first (server/auth/policy.ts through planning/access.ts, or a token route's own check).
+ */
+import type { Tx } from '../db/client.js';
+import { HttpError } from '../http.js';
+import type { ApiErrorDetail } from '../../shared/schemas/common.js';
+import {
+  computePrepPlan,
+  planPartCodes,
+  PrepInputError,
+  type PrepInput,
+  type PrepPlan,
+} from '../../shared/prep/index.js';
+import { loadPrepInput } from './load.js';
+
+/** A lesson as planned now: the plan with its part names, or why the engine refused it. */
+export type LessonPlan =
+  | { plannable: true; input: PrepInput; plan: PrepPlan; partNames: Record<string, string> }
+  | { plannable: false; input: PrepInput; problems: ApiErrorDetail[] };
+
+/**
+ * Plans the lesson as stored in `tx` (run it in one repeatable-read snapshot); null when there is
+ * no such lesson. Only the engine's refusal of stored data becomes `plannable: false`: any other
+ * error is thrown, never hidden.
+ */
+export async function planLesson(tx: Tx, lessonId: string): Promise<LessonPlan | null> {
+  const input = await loadPrepInput(tx, lessonId);
+  if (!input) return null;
+  let plan: PrepPlan;
+  try {
+    plan = computePrepPlan(input);
+  } catch (err) {
+    if (!(err instanceof PrepInputError)) throw err;
+    // Stored data the engine refuses (e.g. a material whose part left the parts list).
+    const problems = err.issues.map((i) => ({
+      path: i.path.map(String).join('.'),
+      message: i.message,
+    }));
+    return { plannable: false, input, problems };
+  }
+  const names = new Map(input.parts.map((p) => [p.code, p.name]));
+  const partNames: Record<string, string> = {};
+  for (const code of planPartCodes(plan)) partNames[code] = names.get(code) ?? code;
+  return { plannable: true, input, plan, partNames };
+}
+
+/** The one answer for a lesson the engine refuses: 422 with the engine's reasons. */
+export function notPlannable(
+  problems: ApiErrorDetail[],
+  message = 'This lesson cannot be planned yet.',
+): HttpError {
+  return new HttpError(422, 'lesson-not-plannable', message, problems);
+}
