@@ -7,7 +7,6 @@ import type { Db } from '../db/client.js';
 import { schools, users } from '../db/schema/index.js';
 import { HttpError } from '../http.js';
 import type { Actor } from './policy.js';
-import type { Role } from '../../shared/schemas/common.js';
 
 declare module 'express-session' {
   interface SessionData {
@@ -89,7 +88,7 @@ export function loadActor(db: Db): RequestHandler {
       .innerJoin(schools, eq(schools.id, users.schoolId))
       .where(eq(users.id, userId));
     if (row && row.status === 'active') {
-      req.actor = { ...row, role: row.role as Role };
+      req.actor = row;
     } else {
       delete req.session.userId;
     }

@@ -2,7 +2,6 @@ import { and, eq, sql } from 'drizzle-orm';
 import type { Tx } from '../db/client.js';
 import { schools, users } from '../db/schema/index.js';
 import type { SessionUser } from '../../shared/schemas/auth.js';
-import type { Role } from '../../shared/schemas/common.js';
 
 /** Loads a user with their school's name, as the auth routes return it. */
 export async function sessionUser(tx: Tx, userId: string): Promise<SessionUser | null> {
@@ -18,7 +17,7 @@ export async function sessionUser(tx: Tx, userId: string): Promise<SessionUser |
     .from(users)
     .innerJoin(schools, eq(schools.id, users.schoolId))
     .where(eq(users.id, userId));
-  return row ? { ...row, role: row.role as Role } : null;
+  return row;
 }
 
 /** Ends every stored session of a user, optionally keeping one (the caller's own). */

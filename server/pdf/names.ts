@@ -1,4 +1,7 @@
-/** File names of downloads: `4K-2026-07-28-rescue-rovers-lesson-2.pdf` and the like. */
+/**
+ * File names of downloads: `4K-2026-07-28-rescue-rovers-lesson-2.pdf` and the like. The header
+ * itself is Express's `res.attachment(name)` (RFC 6266, with `filename*` when needed).
+ */
 
 /** ASCII letters, digits and single hyphens, case kept: `4K`, `Room-3`. */
 function asciiWords(text: string): string {
@@ -9,9 +12,9 @@ function asciiWords(text: string): string {
     .replace(/^-+|-+$/g, '');
 }
 
-/** A lower-case slug: `Rescue Rovers (4M)` → `rescue-rovers-4m`. */
-export function slug(text: string): string {
-  return asciiWords(text).toLowerCase() || 'untitled';
+/** A lower-case slug: `Rescue Rovers (4M)` → `rescue-rovers-4m`; `fallback` when nothing is left. */
+export function slug(text: string, fallback = 'untitled'): string {
+  return asciiWords(text).toLowerCase() || fallback;
 }
 
 /** `4K-2026-07-28-rescue-rovers-lesson-2`: class, date, unit, lesson number. */
@@ -34,9 +37,4 @@ export function unitFileStem(unitTitle: string, classNames: readonly string[]): 
   const classes = [...new Set(classNames)];
   const prefix = classes.length === 1 ? asciiWords(classes[0]!) : '';
   return [prefix, slug(unitTitle)].filter(Boolean).join('-');
-}
-
-/** The header value for a download (names here are ASCII, so no `filename*` is needed). */
-export function attachment(filename: string): string {
-  return `attachment; filename="${filename.replace(/["\\]/g, '')}"`;
 }

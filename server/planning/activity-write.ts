@@ -1,5 +1,5 @@
 /** Creating and changing activities and their bills of materials. */
-import { and, eq, sql } from 'drizzle-orm';
+import { eq, sql } from 'drizzle-orm';
 import type { Tx } from '../db/client.js';
 import { activities, lessons, materials } from '../db/schema/index.js';
 import {

@@ -12,9 +12,3 @@ export function toLocal(stored: string): string {
 export function likePattern(text: string): string {
   return `%${text.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
 }
-
-/** Whether a database error is a unique-key violation (drizzle wraps the driver's error). */
-export function isUniqueViolation(err: unknown): boolean {
-  const e = err as { code?: string; cause?: { code?: string } } | null;
-  return e?.code === '23505' || e?.cause?.code === '23505';
-}

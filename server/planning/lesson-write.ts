@@ -1,5 +1,5 @@
 /** Creating and changing lessons: the checks against the school's records, then the writes. */
-import { and, eq, sql } from 'drizzle-orm';
+import { eq, sql } from 'drizzle-orm';
 import type { Tx } from '../db/client.js';
 import { activities, kitTypes, lessons, lessonTubs, materials, units } from '../db/schema/index.js';
 import type { Actor } from '../auth/policy.js';

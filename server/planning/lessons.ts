@@ -16,7 +16,7 @@ import {
 import { notFound } from '../http.js';
 import type { Actor } from '../auth/policy.js';
 import { canEditUnit } from '../auth/policy.js';
-import type { Activity, ActivityKind, Lesson, MaterialPer } from '../../shared/schemas/lessons.js';
+import type { Activity, Lesson } from '../../shared/schemas/lessons.js';
 import { loadLessonFacts } from './access.js';
 import { toLocal } from './format.js';
 
@@ -67,7 +67,7 @@ async function activitiesOf(
     version: a.version,
     position: a.position,
     title: a.title,
-    kind: a.kind as ActivityKind,
+    kind: a.kind,
     minutes: a.minutes,
     materials: materialRows
       .filter((m) => m.activityId === a.id)
@@ -77,7 +77,7 @@ async function activitiesOf(
         partName: m.partCode === null ? null : (names.get(m.partCode) ?? null),
         consumable: m.consumable,
         qty: m.qty,
-        per: m.per as MaterialPer,
+        per: m.per,
         returnable: m.returnable,
       })),
     attachments: attachmentRows

@@ -12,13 +12,7 @@ import {
 } from '../db/schema/index.js';
 import { notFound } from '../http.js';
 import { canEditUnit, canReadUnit, type Actor, type UnitFacts } from '../auth/policy.js';
-import type {
-  Unit,
-  UnitListQuery,
-  UnitStatus,
-  UnitSummary,
-  UnitVisibility,
-} from '../../shared/schemas/units.js';
+import type { Unit, UnitListQuery, UnitSummary } from '../../shared/schemas/units.js';
 import { likePattern, toLocal } from './format.js';
 
 function person(u: { id: string; name: string; email: string }) {
@@ -78,8 +72,8 @@ export async function unitDetail(tx: Tx, actor: Actor, unitId: string): Promise<
     yearLevel: u.yearLevel,
     learningArea: u.learningArea,
     term: u.term,
-    status: u.status as UnitStatus,
-    visibility: u.visibility as UnitVisibility,
+    status: u.status,
+    visibility: u.visibility,
     owner: person(row.owner),
     version: u.version,
     updatedAt: u.updatedAt.toISOString(),
@@ -152,8 +146,8 @@ export async function listUnits(
       yearLevel: u.yearLevel,
       learningArea: u.learningArea,
       term: u.term,
-      status: u.status as UnitStatus,
-      visibility: u.visibility as UnitVisibility,
+      status: u.status,
+      visibility: u.visibility,
       owner: person(r.owner),
       lessonCount: r.lessonCount,
       version: u.version,

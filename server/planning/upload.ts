@@ -30,24 +30,3 @@ export function safeFilename(original: string, mime: string): string {
   if (extensions.length && (!ext || !extensions.includes(ext))) name = `${name}.${extensions[0]}`;
   return name;
 }
-
-/** RFC 8187 attr-char: what may stay unencoded in `filename*`. */
-const ATTR_CHAR = /[A-Za-z0-9!#$&+\-.^_`|~]/;
-
-/**
- * `Content-Disposition: attachment` with the file name (RFC 6266 §4): an ASCII `filename` for old
- * clients and, when the name is not plain ASCII, `filename*` in UTF-8 (RFC 8187 §3.2).
- */
-export function attachmentDisposition(filename: string): string {
-  const ascii = filename.replace(/[^\x20-\x7e]|["\\]/g, '_');
-  if (ascii === filename) return `attachment; filename="${ascii}"`;
-  let encoded = '';
-  for (const byte of Buffer.from(filename, 'utf8')) {
-    const ch = String.fromCharCode(byte);
-    encoded +=
-      byte < 0x80 && ATTR_CHAR.test(ch)
-        ? ch
-        : `%${byte.toString(16).toUpperCase().padStart(2, '0')}`;
-  }
-  return `attachment; filename="${ascii}"; filename*=UTF-8''${encoded}`;
-}

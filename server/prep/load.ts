@@ -16,7 +16,6 @@ import {
   schools,
   tubMissing,
   tubs,
-  units,
 } from '../db/schema/index.js';
 import type { PrepInput } from '../../shared/prep/index.js';
 import { mergePrep } from '../school/settings.js';
@@ -142,17 +141,17 @@ export async function loadPrepInput(tx: Tx, lessonId: string): Promise<PrepInput
       id: t.id,
       label: t.label,
       controllerLabel: t.controllerLabel,
-      status: t.status as 'ready',
+      status: t.status,
       stock: tubStock(partRows, missingByTub.get(t.id) ?? new Map()),
     })),
     activities: activityRows.map((a) => ({
       title: a.title,
-      kind: a.kind as 'build',
+      kind: a.kind,
       minutes: a.minutes,
       materials: (byActivity.get(a.id) ?? []).map((m) => ({
         ...(m.partCode ? { partCode: m.partCode } : { consumable: m.consumable ?? '' }),
         qty: m.qty,
-        per: m.per as 'group',
+        per: m.per,
         returnable: m.returnable,
       })),
     })),

@@ -11,12 +11,7 @@ import { INVITATION_DAYS, newToken } from '../auth/tokens.js';
 import { enqueueMail } from '../mail/outbox.js';
 import { invitationMail } from '../mail/messages.js';
 import { idParamsSchema, type Role } from '../../shared/schemas/common.js';
-import {
-  inviteSchema,
-  memberUpdateSchema,
-  type Member,
-  type MemberStatus,
-} from '../../shared/schemas/members.js';
+import { inviteSchema, memberUpdateSchema, type Member } from '../../shared/schemas/members.js';
 
 /** The school's members, oldest first, with a pending invitation's expiry. */
 async function listMembers(tx: Tx, schoolId: string, onlyId?: string): Promise<Member[]> {
@@ -51,8 +46,8 @@ async function listMembers(tx: Tx, schoolId: string, onlyId?: string): Promise<M
     id: r.id,
     name: r.name,
     email: r.email,
-    role: r.role as Role,
-    status: r.status as MemberStatus,
+    role: r.role,
+    status: r.status,
     lastSignInAt: r.lastSignInAt ? r.lastSignInAt.toISOString() : null,
     invitationExpiresAt:
       r.status === 'invited' && r.expiresAt ? new Date(r.expiresAt).toISOString() : null,

@@ -21,7 +21,8 @@ import {
   type OutcomeImportResult,
   type OutcomeRow,
 } from '../../shared/schemas/outcomes.js';
-import { isUniqueViolation, likePattern } from '../planning/format.js';
+import { likePattern } from '../planning/format.js';
+import { isUniqueViolation } from '../db/errors.js';
 import { readOutcomesCsv } from '../planning/outcomes-csv.js';
 import { requireFile, singleFileUpload } from '../uploads/index.js';
 

@@ -4,7 +4,7 @@
  * only an admin saves them, all at once, with the version they read.
  */
 import { Router } from 'express';
-import { and, asc, eq, inArray, notInArray, sql } from 'drizzle-orm';
+import { and, asc, eq, inArray, notInArray } from 'drizzle-orm';
 import type { AppContext } from '../context.js';
 import type { Tx } from '../db/client.js';
 import {
@@ -15,7 +15,7 @@ import {
   terms,
   users,
 } from '../db/schema/index.js';
-import { HttpError, notFound, parse } from '../http.js';
+import { parse } from '../http.js';
 import { authorize } from '../auth/policy.js';
 import { requireActor } from '../auth/session.js';
 import { schoolSettingsUpdateSchema, timeZoneNames } from '../../shared/schemas/school.js';

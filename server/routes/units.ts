@@ -5,7 +5,7 @@
  * (./printables.ts) are a sub-router of this one.
  */
 import { Router } from 'express';
-import { and, eq, sql } from 'drizzle-orm';
+import { eq, sql } from 'drizzle-orm';
 import type { AppContext } from '../context.js';
 import { lessons, unitCoauthors, unitOutcomes, units } from '../db/schema/index.js';
 import { forbidden, parse, parseParams } from '../http.js';

@@ -5,6 +5,7 @@
  */
 import type { Tx } from '../db/client.js';
 import { kitTypes, parts, tubAudits, tubMissing, tubs } from '../db/schema/index.js';
+import type { PartCategory } from '../../shared/schemas/kits.js';
 
 /** When the demo's records say they were made (before term 3): fixed, so seeding repeats. */
 export const SEEDED_AT = new Date('2026-07-13T09:00:00+09:30');
@@ -14,7 +15,7 @@ export interface PartSeed {
   code: string;
   name: string;
   colour: string;
-  category: string;
+  category: PartCategory;
   qty: number;
   compartment: string;
   small?: boolean;
@@ -26,7 +27,7 @@ function part(
   code: string,
   name: string,
   colour: string,
-  category: string,
+  category: PartCategory,
   qty: number,
   compartment: string,
   flags: { small?: boolean; chargeMinutes?: number } = {},
@@ -179,7 +180,7 @@ export async function seedKits(tx: Tx, schoolId: string, auditorId: string): Pro
         label: `Tub ${i + 1}`,
         controllerLabel: `RB-C${i + 1}`,
         // Tub 7 came back from another campus and has not been counted yet.
-        status: i + 1 === 7 ? 'needs-sorting' : 'ready',
+        status: i + 1 === 7 ? ('needs-sorting' as const) : ('ready' as const),
         createdAt: SEEDED_AT,
       })),
     )
@@ -192,7 +193,7 @@ export async function seedKits(tx: Tx, schoolId: string, auditorId: string): Pro
         kitTypeId: gateKitId,
         label: `Gate Tub ${i + 1}`,
         controllerLabel: `GC-${i + 1}A / GC-${i + 1}B`,
-        status: 'ready',
+        status: 'ready' as const,
         createdAt: SEEDED_AT,
       })),
     )

@@ -1,7 +1,9 @@
 /** R1: the number of groups and their balanced sizes. */
 
+import { MAX_GROUP_SIZE } from '../definitions.js';
+
 /** The largest group a lesson may have (PREP-RULES.md, `groupSize` 1–8). */
-export const MAX_GROUP_SIZE = 8;
+export { MAX_GROUP_SIZE };
 
 /** n = ceil(S / g): the number of groups for S students in groups of at most g. */
 export function groupCount(students: number, groupSize: number): number {

@@ -6,6 +6,16 @@
 import * as z from 'zod';
 import { crossCheck } from './checks.js';
 import { isKnownTimeZone, LOCAL_DATE_TIME } from './time.js';
+import {
+  ACTIVITY_KINDS,
+  DEFAULT_PREP,
+  MATERIAL_PER,
+  TUB_STATUSES,
+  type ActivityKind,
+  type TubStatus,
+} from '../definitions.js';
+
+export { ACTIVITY_KINDS, MATERIAL_PER, TUB_STATUSES };
 
 /** A whole number in [min, max] with messages a teacher or admin can read. */
 function whole(min: number, max: number) {
@@ -69,8 +79,6 @@ export const prepPartSchema = z.object({
   fullChargeMinutes: whole(1, 1440).nullable().default(null),
 });
 
-export const TUB_STATUSES = ['ready', 'needs-sorting', 'on-loan', 'retired'] as const;
-
 export const prepTubSchema = z.object({
   id: key(100),
   label: text(100),
@@ -79,9 +87,6 @@ export const prepTubSchema = z.object({
   /** Part code → pieces in the tub (its quantity minus what is known missing). */
   stock: stockSchema.default({}),
 });
-
-export const ACTIVITY_KINDS = ['intro', 'build', 'code', 'test', 'reflect', 'other'] as const;
-export const MATERIAL_PER = ['group', 'student', 'class'] as const;
 
 export const prepMaterialSchema = z.object({
   partCode: key(64).nullish(),
@@ -101,19 +106,8 @@ export const prepActivitySchema = z.object({
     .max(2000, { error: 'At most 2000 materials.' }),
 });
 
-/** The school settings of PREP-RULES.md with their defaults. */
-export const DEFAULT_PREP_SETTINGS = Object.freeze({
-  setOutMinutes: 5,
-  packAwayBaseMinutes: 5,
-  packAwaySecondsPerPiece: 2,
-  pullBaseMinutes: 5,
-  pullSecondsPerLine: 20,
-  pullSecondsPerPiece: 1,
-  sparesPercent: 10,
-  chargeBufferMinutes: 15,
-  sortMinutesPerTub: 30,
-  deviceCheckMinutesPerDevice: 1,
-});
+/** The school settings of PREP-RULES.md with their defaults (one list: shared/definitions). */
+export const DEFAULT_PREP_SETTINGS = DEFAULT_PREP;
 
 const d = DEFAULT_PREP_SETTINGS;
 // Upper bounds are generous; they only stop a typing error from producing a day-long task.
@@ -182,5 +176,4 @@ export type PrepTub = ValidPrepInput['tubs'][number];
 export type PrepActivity = ValidPrepInput['activities'][number];
 export type PrepMaterial = PrepActivity['materials'][number];
 export type PrepSettings = ValidPrepInput['settings'];
-export type TubStatus = (typeof TUB_STATUSES)[number];
-export type ActivityKind = (typeof ACTIVITY_KINDS)[number];
+export type { ActivityKind, TubStatus };

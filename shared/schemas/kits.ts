@@ -5,6 +5,9 @@
 import * as z from 'zod';
 import { multiLine, singleLine } from './text.js';
 import { uuidSchema } from './common.js';
+import { TUB_STATUSES } from '../definitions.js';
+
+export { TUB_STATUSES };
 
 export const PART_CATEGORIES = [
   'controller',
@@ -196,7 +199,6 @@ export const PHOTO_TYPES = ['image/png', 'image/jpeg', 'image/webp'] as const;
 export const MAX_PHOTO_BYTES = 5 * 1024 * 1024;
 export const MAX_CSV_BYTES = 2 * 1024 * 1024;
 
-export const TUB_STATUSES = ['ready', 'needs-sorting', 'on-loan', 'retired'] as const;
 export const tubStatusSchema = z.enum(TUB_STATUSES, {
   error: 'Pick a status: ready, needs-sorting, on-loan or retired.',
 });
@@ -303,3 +305,4 @@ export const tubAuditSchema = z.object({
 });
 export type TubAudit = z.infer<typeof tubAuditSchema>;
 export const tubAuditListSchema = z.object({ audits: z.array(tubAuditSchema) });
+export type PartUpdate = z.output<typeof partUpdateSchema>;

@@ -6,6 +6,9 @@
 import * as z from 'zod';
 import { singleLine } from './text.js';
 import { uuidSchema } from './common.js';
+import { ACTIVITY_KINDS, MATERIAL_PER, MAX_GROUP_SIZE } from '../definitions.js';
+
+export { ACTIVITY_KINDS, MATERIAL_PER, MAX_GROUP_SIZE };
 import {
   distinctIds,
   markdownText,
@@ -19,7 +22,6 @@ import {
 const BODY = { message: 'Send the details as a JSON object.' };
 const LINE = { message: 'Send each line of materials as an object.' };
 
-export const ACTIVITY_KINDS = ['intro', 'build', 'code', 'test', 'reflect', 'other'] as const;
 export const activityKindSchema = z.enum(ACTIVITY_KINDS, {
   message: 'Choose intro, build, code, test, reflect or other.',
 });
@@ -33,7 +35,6 @@ export const ACTIVITY_KIND_LABELS: Record<ActivityKind, string> = {
   other: 'Other',
 };
 
-export const MATERIAL_PER = ['group', 'student', 'class'] as const;
 export const materialPerSchema = z.enum(MATERIAL_PER, {
   message: 'Choose per group, per student or per class.',
 });
@@ -41,7 +42,6 @@ export type MaterialPer = z.infer<typeof materialPerSchema>;
 
 /** The longest lesson window the prep engine plans (PREP-RULES.md, "Bad input"). */
 export const MAX_LESSON_MINUTES = 480;
-export const MAX_GROUP_SIZE = 8;
 
 /** `2026-07-28T11:10`: a wall-clock time in the school's timezone, to the minute, no offset. */
 export const LOCAL_DATE_TIME_PATTERN = /^(\d{4})-(\d{2})-(\d{2})T(\d{2}):(\d{2})$/;

@@ -5,6 +5,7 @@
 import * as z from 'zod';
 import { singleLine } from './text.js';
 import { uuidSchema } from './common.js';
+import { DEFAULT_PREP } from '../definitions.js';
 
 export const PAPER_SIZES = ['A4', 'Letter'] as const;
 export const paperSizeSchema = z.enum(PAPER_SIZES, { error: 'Pick A4 or Letter.' });
@@ -52,19 +53,8 @@ function whole(min: number, max: number) {
     .refine((v) => Number.isInteger(v) && v >= min && v <= max, { error: message });
 }
 
-/** The prep allowances and their defaults (PREP-RULES.md, "settings"). */
-export const DEFAULT_PREP = Object.freeze({
-  setOutMinutes: 5,
-  packAwayBaseMinutes: 5,
-  packAwaySecondsPerPiece: 2,
-  pullBaseMinutes: 5,
-  pullSecondsPerLine: 20,
-  pullSecondsPerPiece: 1,
-  sparesPercent: 10,
-  chargeBufferMinutes: 15,
-  sortMinutesPerTub: 30,
-  deviceCheckMinutesPerDevice: 1,
-});
+/** The prep allowances and their defaults (PREP-RULES.md, "settings"; shared/definitions). */
+export { DEFAULT_PREP };
 export type PrepAllowances = { -readonly [K in keyof typeof DEFAULT_PREP]: number };
 
 const d = DEFAULT_PREP;

@@ -10,6 +10,8 @@ import {
   unique,
   uuid,
 } from 'drizzle-orm/pg-core';
+import { TUB_STATUSES } from '../../../shared/definitions.js';
+import { PART_CATEGORIES } from '../../../shared/schemas/kits.js';
 import { schools } from './schools.js';
 import { users } from './users.js';
 import { bytea } from './bytea.js';
@@ -42,7 +44,7 @@ export const parts = pgTable(
     code: text().notNull(),
     name: text().notNull(),
     colour: text(),
-    category: text().notNull().default('other'),
+    category: text({ enum: PART_CATEGORIES }).notNull().default('other'),
     qty: integer().notNull(),
     compartment: text(),
     small: boolean().notNull().default(false),
@@ -80,7 +82,7 @@ export const tubs = pgTable(
     label: text().notNull(),
     controllerLabel: text(),
     /** ready, needs-sorting, on-loan or retired. */
-    status: text().notNull().default('ready'),
+    status: text({ enum: TUB_STATUSES }).notNull().default('ready'),
     version: integer().notNull().default(1),
     createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
   },

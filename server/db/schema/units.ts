@@ -8,6 +8,8 @@ import {
   timestamp,
   uuid,
 } from 'drizzle-orm/pg-core';
+import { ACTIVITY_KINDS, MATERIAL_PER } from '../../../shared/definitions.js';
+import { UNIT_STATUSES, UNIT_VISIBILITIES } from '../../../shared/schemas/units.js';
 import { schools } from './schools.js';
 import { users } from './users.js';
 import { classes } from './classes.js';
@@ -32,9 +34,9 @@ export const units = pgTable(
     term: integer(),
     overview: text().notNull().default(''),
     /** draft, in-review, changes-requested or endorsed. */
-    status: text().notNull().default('draft'),
+    status: text({ enum: UNIT_STATUSES }).notNull().default('draft'),
     /** private or school. */
-    visibility: text().notNull().default('private'),
+    visibility: text({ enum: UNIT_VISIBILITIES }).notNull().default('private'),
     copiedFromId: uuid(),
     version: integer().notNull().default(1),
     createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
@@ -130,7 +132,7 @@ export const activities = pgTable(
     position: integer().notNull(),
     title: text().notNull(),
     /** intro, build, code, test, reflect or other. */
-    kind: text().notNull(),
+    kind: text({ enum: ACTIVITY_KINDS }).notNull(),
     minutes: integer().notNull(),
     version: integer().notNull().default(1),
   },
@@ -150,7 +152,7 @@ export const materials = pgTable(
     consumable: text(),
     qty: integer().notNull(),
     /** group, student or class. */
-    per: text().notNull(),
+    per: text({ enum: MATERIAL_PER }).notNull(),
     returnable: boolean().notNull(),
   },
   (t) => [index('materials_activity_idx').on(t.activityId)],

@@ -1,5 +1,7 @@
 import { index, pgTable, text, timestamp, uuid } from 'drizzle-orm/pg-core';
 import { schools } from './schools.js';
+import { ROLES } from '../../../shared/schemas/common.js';
+import { MEMBER_STATUSES } from '../../../shared/schemas/members.js';
 
 /** A person with a role in one school. `status` is active, invited or deactivated. */
 export const users = pgTable(
@@ -12,8 +14,8 @@ export const users = pgTable(
     /** Stored lower-case; unique across Trayplan since a person belongs to one school. */
     email: text().notNull().unique(),
     name: text().notNull().default(''),
-    role: text().notNull(),
-    status: text().notNull().default('active'),
+    role: text({ enum: ROLES }).notNull(),
+    status: text({ enum: MEMBER_STATUSES }).notNull().default('active'),
     /** PHC string of an argon2id hash; null until an invitation is accepted. */
     passwordHash: text(),
     lastSignInAt: timestamp({ withTimezone: true }),
