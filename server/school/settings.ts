@@ -4,7 +4,13 @@
  */
 import { asc, eq } from 'drizzle-orm';
 import type { Tx } from '../db/client.js';
-import { bellPeriods, nonTeachingDays, schools, schoolSettings, terms } from '../db/schema/index.js';
+import {
+  bellPeriods,
+  nonTeachingDays,
+  schools,
+  schoolSettings,
+  terms,
+} from '../db/schema/index.js';
 import { notFound } from '../http.js';
 import {
   DEFAULT_PREP,
