@@ -18,6 +18,7 @@ import type { Actor } from '../auth/policy.js';
 import { canEditUnit } from '../auth/policy.js';
 import type { Activity, Lesson } from '../../shared/schemas/lessons.js';
 import { loadLessonFacts } from './access.js';
+import { naturalCompare } from '../../shared/prep/index.js';
 import { toLocal } from './format.js';
 
 /** Part code → name of a kit type's parts list. */
@@ -120,7 +121,7 @@ export async function lessonDetail(tx: Tx, actor: Actor, lessonId: string): Prom
     .from(lessonTubs)
     .innerJoin(tubs, eq(tubs.id, lessonTubs.tubId))
     .where(eq(lessonTubs.lessonId, lessonId));
-  booked.sort((a, b) => a.label.localeCompare(b.label, 'en', { numeric: true }));
+  booked.sort((a, b) => naturalCompare(a.label, b.label));
   const l = row.lesson;
   return {
     id: l.id,

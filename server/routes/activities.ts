@@ -15,6 +15,7 @@ import { activityAccess, attachmentAccess } from '../planning/access.js';
 import { updateActivity } from '../planning/activity-write.js';
 import { activityDetail } from '../planning/lessons.js';
 import { safeFilename } from '../planning/upload.js';
+import { attachment } from '../downloads.js';
 import { requireFile, singleFileUpload, sniffUpload } from '../uploads/index.js';
 import { deleteVersion, stale } from '../db/versions.js';
 
@@ -30,10 +31,9 @@ export function activitiesRouter(ctx: AppContext): Router {
     await attachmentAccess(ctx.db, actor, id, 'read');
     const [file] = await ctx.db.select().from(attachments).where(eq(attachments.id, id));
     if (!file) throw notFound('That attachment');
-    // RFC 6266: Express writes `filename` and, for a non-ASCII name, `filename*` (RFC 8187).
-    res.attachment(file.filename);
     res.setHeader('Content-Type', file.contentType);
     res.setHeader('Content-Length', String(file.bytes.length));
+    res.setHeader('Content-Disposition', attachment(file.filename));
     res.setHeader('X-Content-Type-Options', 'nosniff');
     res.setHeader('Cache-Control', 'private, no-store');
     res.end(file.bytes);

@@ -21,7 +21,7 @@ import {
 import { parse } from '../http.js';
 import { requireActor } from '../auth/session.js';
 import { authorsUnit, canReadLesson, type Actor } from '../auth/policy.js';
-import { intervalsOverlap, type PrepPlan } from '../../shared/prep/index.js';
+import { intervalsOverlap, naturalCompare, type PrepPlan } from '../../shared/prep/index.js';
 import { toLocal } from '../planning/format.js';
 import { planLesson } from '../prep/plan-lesson.js';
 
@@ -252,8 +252,8 @@ async function findConflicts(tx: Tx, actor: Actor, from: string, to: string) {
   return {
     conflicts: [...conflicts.values()].map((c) => ({
       lessons: [lessonSummary(c.a), lessonSummary(c.b)],
-      tubs: c.tubs.sort(),
-      message: `"${c.a.title}" and "${c.b.title}" overlap and both book ${c.tubs.sort().join(', ')}.`,
+      tubs: c.tubs.sort(naturalCompare),
+      message: `"${c.a.title}" and "${c.b.title}" overlap and both book ${c.tubs.join(', ')}.`,
     })),
     rechargeGaps: gaps,
   };

@@ -36,7 +36,7 @@ import {
   withUniqueName,
 } from '../kits/kit-types.js';
 import { deletePartPhoto, partPhoto, savePartPhoto, updatePart } from '../kits/parts.js';
-import { slug } from '../pdf/names.js';
+import { sendFile, slug } from '../downloads.js';
 
 const partParamsSchema = z.object({ id: uuidSchema, partId: uuidSchema });
 const codeParamsSchema = z.object({ id: uuidSchema, code: z.string().min(1).max(64) });
@@ -148,9 +148,12 @@ export function kitTypesRouter(ctx: AppContext): Router {
   router.get('/:id/parts.csv', kitFor('kits.read'), async (_req, res) => {
     const kit = kitOf(res);
     const list = await partsOf(ctx.db, kit.id);
-    res.attachment(`${slug(kit.name, 'kit')}-parts.csv`);
-    res.setHeader('Content-Type', 'text/csv; charset=utf-8');
-    res.send(writePartsCsv(list));
+    sendFile(
+      res,
+      'text/csv; charset=utf-8',
+      `${slug(kit.name, 'kit')}-parts.csv`,
+      writePartsCsv(list),
+    );
   });
 
   /** PUT answers 201 when the part had no photo, 200 when one was replaced (RFC 9110 §9.3.4). */

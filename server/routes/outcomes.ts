@@ -23,6 +23,7 @@ import {
 } from '../../shared/schemas/outcomes.js';
 import { likePattern } from '../planning/format.js';
 import { isUniqueViolation } from '../db/errors.js';
+import { naturalCompare } from '../../shared/prep/index.js';
 import { readOutcomesCsv } from '../planning/outcomes-csv.js';
 import { requireFile, singleFileUpload } from '../uploads/index.js';
 
@@ -57,7 +58,7 @@ async function frameworksOf(tx: Tx, schoolId: string, onlyId?: string): Promise<
       yearBands: mine
         .map((s) => s.yearBand)
         .filter((b) => b !== '')
-        .sort((a, b) => a.localeCompare(b, 'en', { numeric: true })),
+        .sort(naturalCompare),
       createdAt: f.createdAt.toISOString(),
     };
   });

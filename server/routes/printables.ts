@@ -15,7 +15,7 @@ import { idParamsSchema } from '../../shared/schemas/common.js';
 import type { LessonPackModel, RenderJob } from '../pdf/model.js';
 import { loadLessonPack, loadPrintContext, loadUnitPack } from '../pdf/load.js';
 import { PdfBusyError, renderInPool } from '../pdf/pool.js';
-import { lessonFileStem, unitFileStem } from '../pdf/names.js';
+import { lessonFileStem, sendFile, unitFileStem } from '../downloads.js';
 import { notPlannable } from '../prep/plan-lesson.js';
 import { prepCalendar } from '../calendar/prep-calendar.js';
 
@@ -53,14 +53,6 @@ async function render(res: Response, job: RenderJob): Promise<Uint8Array | null>
   }
 }
 
-function send(res: Response, type: string, filename: string, body: Uint8Array | string): void {
-  res.attachment(filename);
-  res.setHeader('Content-Type', type);
-  res.send(
-    typeof body === 'string' ? body : Buffer.from(body.buffer, body.byteOffset, body.byteLength),
-  );
-}
-
 function snapshotOf(ctx: AppContext): Snapshot {
   return (work) =>
     ctx.db.transaction(work, { isolationLevel: 'repeatable read', accessMode: 'read only' });
@@ -93,7 +85,7 @@ export function lessonPrintablesRouter(ctx: AppContext): Router {
     const { lesson, print } = await lessonFor(req);
     if (!lesson.plan) throw unplannable(lesson);
     const bytes = await render(res, { kind: 'lesson-pack', print, lesson });
-    if (bytes) send(res, 'application/pdf', `${lessonFileStem(lesson)}.pdf`, bytes);
+    if (bytes) sendFile(res, 'application/pdf', `${lessonFileStem(lesson)}.pdf`, bytes);
   });
 
   router.get('/:id/labels.pdf', async (req, res) => {
@@ -107,7 +99,7 @@ export function lessonPrintablesRouter(ctx: AppContext): Router {
       lesson: { ...lesson, plan },
       groupUrls,
     });
-    if (bytes) send(res, 'application/pdf', `${lessonFileStem(lesson)}-tray-labels.pdf`, bytes);
+    if (bytes) sendFile(res, 'application/pdf', `${lessonFileStem(lesson)}-tray-labels.pdf`, bytes);
   });
 
   router.get('/:id/prep.ics', async (req, res) => {
@@ -120,7 +112,7 @@ export function lessonPrintablesRouter(ctx: AppContext): Router {
       lessons: [lesson],
       lessonUrl,
     });
-    send(res, 'text/calendar; charset=utf-8', `${lessonFileStem(lesson)}-prep.ics`, text);
+    sendFile(res, 'text/calendar; charset=utf-8', `${lessonFileStem(lesson)}-prep.ics`, text);
   });
 
   return router;
@@ -152,7 +144,7 @@ export function unitPrintablesRouter(ctx: AppContext): Router {
       unit.title,
       lessons.map((l) => l.className),
     );
-    if (bytes) send(res, 'application/pdf', `${stem}-unit-pack.pdf`, bytes);
+    if (bytes) sendFile(res, 'application/pdf', `${stem}-unit-pack.pdf`, bytes);
   });
 
   router.get('/:id/prep.ics', async (req, res) => {
@@ -168,7 +160,7 @@ export function unitPrintablesRouter(ctx: AppContext): Router {
       unit.title,
       lessons.map((l) => l.className),
     );
-    send(res, 'text/calendar; charset=utf-8', `${stem}-prep.ics`, text);
+    sendFile(res, 'text/calendar; charset=utf-8', `${stem}-prep.ics`, text);
   });
 
   return router;

@@ -10,7 +10,7 @@ import { requireActor } from '../auth/session.js';
 import { authorize } from '../auth/policy.js';
 import { idParamsSchema } from '../../shared/schemas/common.js';
 import { replacementList } from '../kits/replacements.js';
-import { slug } from '../pdf/names.js';
+import { sendFile, slug } from '../downloads.js';
 
 export function replacementsRouter(ctx: AppContext): Router {
   const router = Router();
@@ -35,9 +35,7 @@ export function replacementsRouter(ctx: AppContext): Router {
       ]),
       { header: true, columns: ['code', 'name', 'missing', 'tubs'], record_delimiter: '\r\n' },
     );
-    res.attachment(`${slug(kit.name, 'kit')}-replacements.csv`);
-    res.type('text/csv; charset=utf-8');
-    res.send(csv);
+    sendFile(res, 'text/csv; charset=utf-8', `${slug(kit.name, 'kit')}-replacements.csv`, csv);
   });
   return router;
 }

@@ -4,7 +4,7 @@
  * fixing a lesson sees every problem at once.
  */
 import { MAX_STOCK, MAX_WINDOW_MINUTES } from './limits.js';
-import { isKnownTimeZone, LOCAL_DATE_TIME, localToInstant, minutesBetween } from './time.js';
+import { isIanaTimeZone, LOCAL_DATE_TIME, localToInstant, minutesBetween } from './time.js';
 
 /** A problem found by a cross-field rule. */
 export interface CrossIssue {
@@ -199,7 +199,7 @@ export function crossCheck(raw: unknown): CrossIssue[] {
   const out: CrossIssue[] = [];
   if (!isObj(raw)) return out;
   const tz = str(raw['timezone']);
-  const zone = tz !== undefined && isKnownTimeZone(tz) ? tz : undefined;
+  const zone = tz !== undefined && isIanaTimeZone(tz) ? tz : undefined;
   checkLesson(raw, zone, out);
   const codes = checkParts(raw, out);
   checkTubs(raw, codes, out);

@@ -34,7 +34,7 @@ export {
   addMinutes,
   formatInstant,
   intervalsOverlap,
-  isKnownTimeZone,
+  isIanaTimeZone,
   localToInstant,
   minutesBetween,
   offsetMinutes,

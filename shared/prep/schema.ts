@@ -5,7 +5,7 @@
  */
 import * as z from 'zod';
 import { crossCheck } from './checks.js';
-import { isKnownTimeZone, LOCAL_DATE_TIME } from './time.js';
+import { isIanaTimeZone, LOCAL_DATE_TIME } from './time.js';
 import {
   ACTIVITY_KINDS,
   DEFAULT_PREP,
@@ -129,7 +129,7 @@ export const prepSettingsSchema = z
 export const prepBaseSchema = z.object({
   timezone: z
     .string({ error: 'Must be an IANA time zone name like Australia/Adelaide.' })
-    .refine(isKnownTimeZone, { error: 'Must be an IANA time zone name like Australia/Adelaide.' }),
+    .refine(isIanaTimeZone, { error: 'Must be an IANA time zone name like Australia/Adelaide.' }),
   lesson: z.object(
     { startsAt: localDateTime, endsAt: localDateTime, groupSize: whole(1, 8) },
     shapeError('Must be an object.'),

@@ -1,27 +1,41 @@
 /**
- * Wall-clock arithmetic in a school's IANA time zone. Zone names are checked with Luxon; offsets
- * come from `Intl` (the same tz database Luxon reads, but about seven times faster than Luxon's
- * own lookup, which matters because a plan formats a few dozen instants). Durations are always
+ * Wall-clock arithmetic in a school's IANA time zone. Zone names are checked here once for the
+ * engine and the settings form alike (`isIanaTimeZone`); offsets come from `Intl` (the same tz
+ * database Luxon reads, but about seven times faster than Luxon's own lookup, which matters
+ * because a plan formats a few dozen instants). Durations are always
  * elapsed time (epoch milliseconds). The tests check all of this against Luxon.
  */
-import { IANAZone } from 'luxon';
-
 const MINUTE_MS = 60_000;
 /** `2026-07-28T11:10`, optionally with `:00` seconds: lessons are planned to the minute. */
 export const LOCAL_DATE_TIME = /^(\d{4})-(\d{2})-(\d{2})T(\d{2}):(\d{2})(?::00)?$/;
 
-/** Whether `name` is a time zone of the IANA database (`Australia/Adelaide`), not an offset. */
-export function isKnownTimeZone(name: string): boolean {
-  let known = knownZones.get(name);
-  if (known === undefined) {
-    // Luxon builds a new Intl.DateTimeFormat per check (~45 µs): remember the answer.
-    known = /^[A-Za-z]/.test(name) && IANAZone.isValidZone(name);
-    if (knownZones.size < 1000) knownZones.set(name, known);
-  }
-  return known;
+/** Zone names the runtime's own tz data lists, plus `UTC` (which the list leaves out). */
+export function timeZoneNames(): string[] {
+  const names = new Set(Intl.supportedValuesOf('timeZone'));
+  names.add('UTC');
+  return [...names].sort();
 }
 
-const knownZones = new Map<string, boolean>();
+let listed: Set<string> | null = null;
+/** An `Area/Location` name as the IANA database writes them (not an offset or abbreviation). */
+const AREA_LOCATION = /^[A-Z][A-Za-z_-]*(\/[A-Za-z0-9_+-]+)+$/;
+
+/**
+ * Whether `name` is an IANA time zone: listed by `Intl.supportedValuesOf`, or (for the aliases
+ * and newer names that list omits, like `Asia/Kolkata` on some ICU builds) an `Area/Location`
+ * name that `Intl.DateTimeFormat` accepts. Abbreviations such as `EST` and offsets are refused.
+ */
+export function isIanaTimeZone(name: string): boolean {
+  listed ??= new Set(timeZoneNames());
+  if (listed.has(name)) return true;
+  if (!AREA_LOCATION.test(name)) return false;
+  try {
+    new Intl.DateTimeFormat('en', { timeZone: name });
+    return true;
+  } catch {
+    return false;
+  }
+}
 
 const offsetFormats = new Map<string, Intl.DateTimeFormat>();
 

@@ -1,17 +1,8 @@
 /** Classes: the groups of students a lesson is taught to. Used by the server and the client. */
 import * as z from 'zod';
 import { singleLine } from './text.js';
-import { uuidSchema } from './common.js';
+import { uuidSchema, whole } from './common.js';
 
-/** A whole number in [min, max] with a message a teacher can read. */
-function whole(min: number, max: number) {
-  const message = `Use a whole number from ${min} to ${max}.`;
-  // One refinement rather than z.int().min().max(): one message per field, and z.int() stops
-  // every later check of the form (the cross-field rules too) when it fails.
-  return z
-    .number({ error: message })
-    .refine((v) => Number.isInteger(v) && v >= min && v <= max, { error: message });
-}
 
 /** Year 0 is the first year of school (Foundation, Reception or Kindergarten, by region). */
 export const YEAR_LEVELS = [0, 1, 2, 3, 4, 5, 6, 7, 8, 9, 10, 11, 12] as const;

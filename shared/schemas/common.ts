@@ -14,6 +14,16 @@ export const ROLE_LABELS: Record<Role, string> = {
   relief: 'Relief teacher',
 };
 
+/** A whole number in [min, max] with a message an admin can read (the forms' one number rule). */
+export function whole(min: number, max: number) {
+  const message = `Use a whole number from ${min} to ${max}.`;
+  // One refinement rather than z.int().min().max(): one message per field, and z.int() stops
+  // every later check of the form (the cross-field rules too) when it fails.
+  return z
+    .number({ error: message })
+    .refine((v) => Number.isInteger(v) && v >= min && v <= max, { error: message });
+}
+
 export const uuidSchema = z.uuid({ message: 'Must be a valid id.' });
 export const idParamsSchema = z.object({ id: uuidSchema });
 

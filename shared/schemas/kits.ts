@@ -4,7 +4,7 @@
  */
 import * as z from 'zod';
 import { multiLine, singleLine } from './text.js';
-import { uuidSchema } from './common.js';
+import { uuidSchema, whole } from './common.js';
 import { TUB_STATUSES } from '../definitions.js';
 
 export { TUB_STATUSES };
@@ -33,15 +33,6 @@ export type PartCategory = z.infer<typeof partCategorySchema>;
 export const MAX_PART_QTY = 10_000;
 /** Most lines a parts list may have (the CSV limit of API.md). */
 export const MAX_PARTS = 5_000;
-
-function whole(min: number, max: number) {
-  const message = `Use a whole number from ${min} to ${max}.`;
-  // One refinement rather than z.int().min().max(): one message per field, and z.int() stops
-  // every later check of the form (the cross-field rules too) when it fails.
-  return z
-    .number({ error: message })
-    .refine((v) => Number.isInteger(v) && v >= min && v <= max, { error: message });
-}
 
 /** Optional text: blank becomes null. */
 function optionalText(max: number, what: string) {

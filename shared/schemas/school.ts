@@ -4,54 +4,19 @@
  */
 import * as z from 'zod';
 import { singleLine } from './text.js';
-import { uuidSchema } from './common.js';
+import { uuidSchema, whole } from './common.js';
 import { DEFAULT_PREP } from '../definitions.js';
+import { isIanaTimeZone, timeZoneNames } from '../prep/time.js';
 
 export const PAPER_SIZES = ['A4', 'Letter'] as const;
 export const paperSizeSchema = z.enum(PAPER_SIZES, { error: 'Pick A4 or Letter.' });
 export type PaperSize = z.infer<typeof paperSizeSchema>;
 
-/** Zone names the runtime's own tz data lists, plus `UTC` (which the list leaves out). */
-export function timeZoneNames(): string[] {
-  const names = new Set(Intl.supportedValuesOf('timeZone'));
-  names.add('UTC');
-  return [...names].sort();
-}
-
-let listed: Set<string> | null = null;
-/** An `Area/Location` name as the IANA database writes them (not an offset or abbreviation). */
-const AREA_LOCATION = /^[A-Z][A-Za-z_-]*(\/[A-Za-z0-9_+-]+)+$/;
-
-/**
- * Whether `name` is an IANA time zone: listed by `Intl.supportedValuesOf`, or (for the aliases
- * and newer names that list omits, like `Asia/Kolkata` on some ICU builds) an `Area/Location`
- * name that `Intl.DateTimeFormat` accepts. Abbreviations such as `EST` and offsets are refused.
- */
-export function isIanaTimeZone(name: string): boolean {
-  listed ??= new Set(timeZoneNames());
-  if (listed.has(name)) return true;
-  if (!AREA_LOCATION.test(name)) return false;
-  try {
-    new Intl.DateTimeFormat('en', { timeZone: name });
-    return true;
-  } catch {
-    return false;
-  }
-}
+export { isIanaTimeZone, timeZoneNames };
 
 export const timeZoneSchema = singleLine({ error: 'Pick a time zone, like Australia/Adelaide.' })
   .trim()
   .refine(isIanaTimeZone, { error: 'Pick a time zone from the list, like Australia/Adelaide.' });
-
-/** A whole number in [min, max] with a message an admin can read. */
-function whole(min: number, max: number) {
-  const message = `Use a whole number from ${min} to ${max}.`;
-  // One refinement rather than z.int().min().max(): one message per field, and z.int() stops
-  // every later check of the form (the cross-field rules too) when it fails.
-  return z
-    .number({ error: message })
-    .refine((v) => Number.isInteger(v) && v >= min && v <= max, { error: message });
-}
 
 /** The prep allowances and their defaults (PREP-RULES.md, "settings"; shared/definitions). */
 export { DEFAULT_PREP };

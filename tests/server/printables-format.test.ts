@@ -9,7 +9,7 @@ import assert from 'node:assert/strict';
 import { getDocument } from 'pdfjs-dist/legacy/build/pdf.mjs';
 import { markdownToContent } from '../../server/pdf/markdown.js';
 import type { Content, ContentNode } from '../../server/pdf/content.js';
-import { lessonFileStem, slug, unitFileStem } from '../../server/pdf/names.js';
+import { attachment, lessonFileStem, slug, unitFileStem } from '../../server/downloads.js';
 import { formatOffset, offsetChanges, vtimezone } from '../../server/calendar/vtimezone.js';
 import { renderPdf } from '../../server/pdf/document.js';
 import type { LessonPackModel, RenderJob } from '../../server/pdf/model.js';
@@ -120,6 +120,7 @@ describe('download names', () => {
     assert.equal(slug('¿?'), 'untitled');
     assert.equal(unitFileStem('Rescue Rovers', ['4K', '4K']), '4K-rescue-rovers');
     assert.equal(unitFileStem('Rescue Rovers', ['4K', '4M']), 'rescue-rovers');
+    assert.equal(attachment('a"b.pdf'), 'attachment; filename="ab.pdf"');
   });
 });
 
