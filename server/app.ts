@@ -26,7 +26,7 @@ import { lessonsRouter } from './routes/lessons.js';
 import { activitiesRouter } from './routes/activities.js';
 import { agendaRouter, conflictsRouter } from './routes/agenda.js';
 import { reliefRouter } from './routes/relief.js';
-import { lessonShareLinksRouter, shareLinksRouter } from './routes/share-links.js';
+import { shareLinksRouter } from './routes/share-links.js';
 import { shareRouter } from './routes/share.js';
 import { calendarFeedRouter, calendarRouter } from './routes/calendar-feed.js';
 

@@ -1,6 +1,6 @@
 /**
  * Downloads: their file names (`4K-2026-07-28-rescue-rovers-lesson-2.pdf` and the like) and the
- * one Content-Disposition header every download sends (`sendFile`).
+ * one Content-Disposition header every download sends (`sendDownload`).
  */
 import type { Response } from 'express';
 
@@ -64,7 +64,7 @@ export function attachment(filename: string): string {
 }
 
 /** Sends `body` as a download named `filename` with the given content type. */
-export function sendFile(
+export function sendDownload(
   res: Response,
   type: string,
   filename: string,

@@ -8,6 +8,7 @@ import { kitTypes, partPhotos, parts, tubs } from '../db/schema/index.js';
 import { HttpError, notFound } from '../http.js';
 import { isUniqueViolation } from '../db/errors.js';
 import { stale, versionedUpdate } from '../db/versions.js';
+import { naturalCompare } from '../../shared/prep/index.js';
 import type { KitType, KitTypeSummary, Part, PartValues } from '../../shared/schemas/kits.js';
 
 const nameTaken = () =>
@@ -44,7 +45,7 @@ export async function kitTypeSummaries(
   schoolId: string,
   onlyId?: string,
 ): Promise<KitTypeSummary[]> {
-  return tx
+  const rows = await tx
     .select({
       id: kitTypes.id,
       name: kitTypes.name,
@@ -59,6 +60,8 @@ export async function kitTypeSummaries(
         : eq(kitTypes.schoolId, schoolId),
     )
     .orderBy(asc(kitTypes.name));
+  // Names in reading order, numbers as numbers, as tubs are listed (shared/prep/natural.ts).
+  return rows.sort((a, b) => naturalCompare(a.name, b.name));
 }
 
 /** The parts list in order, each with whether a photo is stored for its code. */

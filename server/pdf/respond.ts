@@ -1,12 +1,11 @@
 /**
- * Answering with a rendered file: render on the worker pool (503 with Retry-After when it is
- * full, nothing at all when the client has gone), then send it as a download.
+ * Rendering a file for a response: on the worker pool (503 with Retry-After when it is full,
+ * nothing at all when the client has gone). server/downloads.ts sends it.
  */
 import type { Response } from 'express';
 import { HttpError } from '../http.js';
 import type { RenderJob } from './model.js';
 import { PdfBusyError, renderInPool } from './pool.js';
-import { attachment } from './names.js';
 
 /** Renders on the pool; null when the client went away meanwhile. */
 export async function renderForResponse(res: Response, job: RenderJob): Promise<Uint8Array | null> {
@@ -29,18 +28,4 @@ export async function renderForResponse(res: Response, job: RenderJob): Promise<
     }
     throw err;
   }
-}
-
-/** Sends bytes or text as a download with an ASCII file name. */
-export function sendDownload(
-  res: Response,
-  type: string,
-  filename: string,
-  body: Uint8Array | string,
-): void {
-  res.setHeader('Content-Type', type);
-  res.setHeader('Content-Disposition', attachment(filename));
-  res.send(
-    typeof body === 'string' ? body : Buffer.from(body.buffer, body.byteOffset, body.byteLength),
-  );
 }

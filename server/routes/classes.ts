@@ -8,6 +8,7 @@ import type { AppContext } from '../context.js';
 import type { Tx } from '../db/client.js';
 import { classes, classTeachers, users } from '../db/schema/index.js';
 import { HttpError, notFound, parse, parseParams } from '../http.js';
+import { isUniqueViolation } from '../db/errors.js';
 import { authorize, type Actor } from '../auth/policy.js';
 import { requireActor } from '../auth/session.js';
 import { idParamsSchema } from '../../shared/schemas/common.js';
@@ -16,12 +17,6 @@ import {
   classUpdateSchema,
   type SchoolClass,
 } from '../../shared/schemas/classes.js';
-
-/** Whether a database error is a unique-constraint violation (SQLSTATE 23505). */
-function isUniqueViolation(err: unknown): boolean {
-  const e = err as { code?: string; cause?: { code?: string } };
-  return e?.code === '23505' || e?.cause?.code === '23505';
-}
 
 const nameTaken = () =>
   new HttpError(409, 'name-taken', 'Another class of the school already has this name.', [

@@ -36,7 +36,7 @@ import {
   withUniqueName,
 } from '../kits/kit-types.js';
 import { deletePartPhoto, partPhoto, savePartPhoto, updatePart } from '../kits/parts.js';
-import { sendFile, slug } from '../downloads.js';
+import { sendDownload, slug } from '../downloads.js';
 
 const partParamsSchema = z.object({ id: uuidSchema, partId: uuidSchema });
 const codeParamsSchema = z.object({ id: uuidSchema, code: z.string().min(1).max(64) });
@@ -148,7 +148,7 @@ export function kitTypesRouter(ctx: AppContext): Router {
   router.get('/:id/parts.csv', kitFor('kits.read'), async (_req, res) => {
     const kit = kitOf(res);
     const list = await partsOf(ctx.db, kit.id);
-    sendFile(
+    sendDownload(
       res,
       'text/csv; charset=utf-8',
       `${slug(kit.name, 'kit')}-parts.csv`,

@@ -2,7 +2,8 @@
  * Lessons: read (with activities, materials and attachments in order), edit with a version,
  * delete, reorder activities, and add an activity. A lesson is read as its unit is (or by the
  * relief teacher it is assigned to) and edited by its unit's authors. The lesson's prep plan
- * (./prep.ts) and printables (./printables.ts) are sub-routers of this one.
+ * (./prep.ts), printables (./printables.ts) and share links (./share-links.ts) are sub-routers
+ * of this one.
  */
 import { Router } from 'express';
 import { eq, sql } from 'drizzle-orm';
@@ -18,12 +19,14 @@ import { updateLesson } from '../planning/lesson-write.js';
 import { lessonDetail } from '../planning/lessons.js';
 import { prepRouter } from './prep.js';
 import { lessonPrintablesRouter } from './printables.js';
+import { lessonShareLinksRouter } from './share-links.js';
 import { deleteVersion, sameMembers, stale, staleOrder, writeOrder } from '../db/versions.js';
 
 export function lessonsRouter(ctx: AppContext): Router {
   const router = Router();
   router.use(prepRouter(ctx));
   router.use(lessonPrintablesRouter(ctx));
+  router.use('/:lessonId/share-links', lessonShareLinksRouter(ctx));
 
   router.get('/:id', async (req, res) => {
     const actor = requireActor(req);

@@ -5,17 +5,17 @@
  * always matches what is stored at that moment. Read access as for the lesson or unit itself.
  * The lessons router mounts the lesson's files, the units router the unit's.
  */
-import { Router, type Request, type Response } from 'express';
+import { Router, type Request } from 'express';
 import type { AppContext } from '../context.js';
 import type { Tx } from '../db/client.js';
 import { HttpError, notFound, parseParams } from '../http.js';
 import { requireActor } from '../auth/session.js';
 import { readableLesson, readableUnit } from '../planning/access.js';
 import { idParamsSchema } from '../../shared/schemas/common.js';
-import type { LessonPackModel, RenderJob } from '../pdf/model.js';
+import type { LessonPackModel } from '../pdf/model.js';
 import { loadLessonPack, loadPrintContext, loadUnitPack } from '../pdf/load.js';
-import { PdfBusyError, renderInPool } from '../pdf/pool.js';
-import { lessonFileStem, sendFile, unitFileStem } from '../downloads.js';
+import { renderForResponse } from '../pdf/respond.js';
+import { lessonFileStem, sendDownload, unitFileStem } from '../downloads.js';
 import { notPlannable } from '../prep/plan-lesson.js';
 import { prepCalendar } from '../calendar/prep-calendar.js';
 
@@ -26,31 +26,6 @@ function unplannable(lesson: LessonPackModel): HttpError {
     lesson.problems.map((message) => ({ path: '', message })),
     'This lesson cannot be planned yet, so there is nothing to print.',
   );
-}
-
-/** Renders on the pool; gives up (quietly) if the client has gone, 503 when the pool is full. */
-async function render(res: Response, job: RenderJob): Promise<Uint8Array | null> {
-  const gone = new AbortController();
-  res.on('close', () => {
-    if (!res.writableEnded) gone.abort();
-  });
-  try {
-    return await renderInPool(job, gone.signal);
-  } catch (err) {
-    if (gone.signal.aborted) return null;
-    if (err instanceof PdfBusyError || (err as Error).name === 'AbortError') {
-      throw new HttpError(
-        503,
-        'printing-busy',
-        'Trayplan is busy making other files. Try again in a moment.',
-        undefined,
-        {
-          headers: { 'Retry-After': '5' },
-        },
-      );
-    }
-    throw err;
-  }
 }
 
 function snapshotOf(ctx: AppContext): Snapshot {
@@ -84,8 +59,8 @@ export function lessonPrintablesRouter(ctx: AppContext): Router {
   router.get('/:id/pack.pdf', async (req, res) => {
     const { lesson, print } = await lessonFor(req);
     if (!lesson.plan) throw unplannable(lesson);
-    const bytes = await render(res, { kind: 'lesson-pack', print, lesson });
-    if (bytes) sendFile(res, 'application/pdf', `${lessonFileStem(lesson)}.pdf`, bytes);
+    const bytes = await renderForResponse(res, { kind: 'lesson-pack', print, lesson });
+    if (bytes) sendDownload(res, 'application/pdf', `${lessonFileStem(lesson)}.pdf`, bytes);
   });
 
   router.get('/:id/labels.pdf', async (req, res) => {
@@ -93,13 +68,14 @@ export function lessonPrintablesRouter(ctx: AppContext): Router {
     const plan = lesson.plan;
     if (!plan) throw unplannable(lesson);
     const groupUrls = plan.groups.map((g) => groupUrl(lesson.id, g.number));
-    const bytes = await render(res, {
+    const bytes = await renderForResponse(res, {
       kind: 'labels',
       print,
       lesson: { ...lesson, plan },
       groupUrls,
     });
-    if (bytes) sendFile(res, 'application/pdf', `${lessonFileStem(lesson)}-tray-labels.pdf`, bytes);
+    if (bytes)
+      sendDownload(res, 'application/pdf', `${lessonFileStem(lesson)}-tray-labels.pdf`, bytes);
   });
 
   router.get('/:id/prep.ics', async (req, res) => {
@@ -112,7 +88,7 @@ export function lessonPrintablesRouter(ctx: AppContext): Router {
       lessons: [lesson],
       lessonUrl,
     });
-    sendFile(res, 'text/calendar; charset=utf-8', `${lessonFileStem(lesson)}-prep.ics`, text);
+    sendDownload(res, 'text/calendar; charset=utf-8', `${lessonFileStem(lesson)}-prep.ics`, text);
   });
 
   return router;
@@ -139,12 +115,12 @@ export function unitPrintablesRouter(ctx: AppContext): Router {
 
   router.get('/:id/pack.pdf', async (req, res) => {
     const { unit, lessons, print } = await unitFor(req);
-    const bytes = await render(res, { kind: 'unit-pack', print, unit, lessons });
+    const bytes = await renderForResponse(res, { kind: 'unit-pack', print, unit, lessons });
     const stem = unitFileStem(
       unit.title,
       lessons.map((l) => l.className),
     );
-    if (bytes) sendFile(res, 'application/pdf', `${stem}-unit-pack.pdf`, bytes);
+    if (bytes) sendDownload(res, 'application/pdf', `${stem}-unit-pack.pdf`, bytes);
   });
 
   router.get('/:id/prep.ics', async (req, res) => {
@@ -160,7 +136,7 @@ export function unitPrintablesRouter(ctx: AppContext): Router {
       unit.title,
       lessons.map((l) => l.className),
     );
-    sendFile(res, 'text/calendar; charset=utf-8', `${stem}-prep.ics`, text);
+    sendDownload(res, 'text/calendar; charset=utf-8', `${stem}-prep.ics`, text);
   });
 
   return router;

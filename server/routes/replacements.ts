@@ -10,7 +10,7 @@ import { requireActor } from '../auth/session.js';
 import { authorize } from '../auth/policy.js';
 import { idParamsSchema } from '../../shared/schemas/common.js';
 import { replacementList } from '../kits/replacements.js';
-import { sendFile, slug } from '../downloads.js';
+import { sendDownload, slug } from '../downloads.js';
 
 export function replacementsRouter(ctx: AppContext): Router {
   const router = Router();
@@ -35,7 +35,7 @@ export function replacementsRouter(ctx: AppContext): Router {
       ]),
       { header: true, columns: ['code', 'name', 'missing', 'tubs'], record_delimiter: '\r\n' },
     );
-    sendFile(res, 'text/csv; charset=utf-8', `${slug(kit.name, 'kit')}-replacements.csv`, csv);
+    sendDownload(res, 'text/csv; charset=utf-8', `${slug(kit.name, 'kit')}-replacements.csv`, csv);
   });
   return router;
 }

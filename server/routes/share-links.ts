@@ -1,8 +1,8 @@
 /**
  * Share links of a lesson (API.md, "Relief without an account"): make one (copied, or e-mailed
  * through the outbox in the same transaction), list them (never their tokens), withdraw one.
- * `lessonShareLinksRouter` is mounted at /lessons/:lessonId/share-links, `shareLinksRouter` at
- * /share-links.
+ * `lessonShareLinksRouter` is mounted inside the lessons router at /:lessonId/share-links,
+ * `shareLinksRouter` at /share-links.
  */
 import { Router } from 'express';
 import { and, desc, eq, isNull } from 'drizzle-orm';
@@ -15,7 +15,7 @@ import { newToken } from '../auth/tokens.js';
 import { idParamsSchema, uuidSchema } from '../../shared/schemas/common.js';
 import { shareLinkCreateSchema } from '../../shared/schemas/sharing.js';
 import { enqueueMail } from '../mail/outbox.js';
-import { toLocal } from '../prep/load.js';
+import { toLocal } from '../planning/format.js';
 import { shareableLesson } from '../sharing/access.js';
 import { checkShareExpiry, defaultShareExpiry } from '../sharing/links.js';
 import { shareLinkMail } from '../sharing/mail.js';

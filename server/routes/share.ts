@@ -10,12 +10,12 @@ import { z } from 'zod';
 import type { AppContext } from '../context.js';
 import type { Tx } from '../db/client.js';
 import { activities, attachments } from '../db/schema/index.js';
-import { HttpError, notFound, parseParams } from '../http.js';
+import { notFound, parseParams } from '../http.js';
 import { uuidSchema } from '../../shared/schemas/common.js';
 import { loadLessonPack, loadPrintContext } from '../pdf/load.js';
-import { lessonFileStem } from '../pdf/names.js';
-import { renderForResponse, sendDownload } from '../pdf/respond.js';
-import { attachmentDisposition } from '../planning/upload.js';
+import { attachment, lessonFileStem, sendDownload } from '../downloads.js';
+import { renderForResponse } from '../pdf/respond.js';
+import { notPlannable } from '../prep/plan-lesson.js';
 import { openShareLink } from '../sharing/links.js';
 import { activitiesWithAttachments, sharedLesson } from '../sharing/view.js';
 
@@ -53,11 +53,9 @@ export function shareRouter(ctx: AppContext): Router {
       };
     });
     if (!lesson.plan) {
-      throw new HttpError(
-        422,
-        'lesson-not-plannable',
-        'This lesson cannot be planned yet, so there is nothing to print. Ask its teacher.',
+      throw notPlannable(
         lesson.problems.map((message) => ({ path: '', message })),
+        'This lesson cannot be planned yet, so there is nothing to print. Ask its teacher.',
       );
     }
     const bytes = await renderForResponse(res, {
@@ -88,7 +86,7 @@ export function shareRouter(ctx: AppContext): Router {
     });
     res.setHeader('Content-Type', file.contentType);
     res.setHeader('Content-Length', String(file.bytes.length));
-    res.setHeader('Content-Disposition', attachmentDisposition(file.filename));
+    res.setHeader('Content-Disposition', attachment(file.filename));
     res.setHeader('X-Content-Type-Options', 'nosniff');
     res.end(file.bytes);
   });
