@@ -16,7 +16,7 @@ import { hashToken, newToken } from '../auth/tokens.js';
 import type { Role } from '../../shared/schemas/common.js';
 import { sameHash, tokenShaped } from '../sharing/links.js';
 import { feedCalendar } from '../calendar/feed.js';
-import { sendDownload } from '../pdf/respond.js';
+import { sendDownload } from '../downloads.js';
 
 /** Mounted at /account/calendar-feed. */
 export function calendarFeedRouter(ctx: AppContext): Router {
