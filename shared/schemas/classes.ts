@@ -3,7 +3,6 @@ import * as z from 'zod';
 import { singleLine } from './text.js';
 import { uuidSchema, whole } from './common.js';
 
-
 /** Year 0 is the first year of school (Foundation, Reception or Kindergarten, by region). */
 export const YEAR_LEVELS = [0, 1, 2, 3, 4, 5, 6, 7, 8, 9, 10, 11, 12] as const;
 
