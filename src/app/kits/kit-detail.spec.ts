@@ -194,7 +194,13 @@ describe('KitDetail', () => {
     expect(first.request.body).toEqual({ version: 3, name: 'Big wheel' });
     // A colleague changed the wheel quantity to 6 meanwhile (version 4).
     first.flush(
-      { error: { code: 'stale', message: 'Someone changed this kit type.', current: kit(4, 6) } },
+      {
+        error: {
+          code: 'stale-version',
+          message: 'Someone changed this kit type.',
+          current: kit(4, 6),
+        },
+      },
       { status: 409, statusText: 'Conflict' },
     );
     fixture.detectChanges();

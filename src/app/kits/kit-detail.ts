@@ -27,6 +27,7 @@ import {
 } from '../../../shared/schemas/kits';
 import { Session } from '../auth/session';
 import { AppError } from '../errors/app-error';
+import { staleConflict } from '../errors/conflict';
 import { Notifier } from '../errors/notifier';
 import { confirmDelete } from './delete-dialog';
 import { ImportDialog, type ImportDialogData } from './import-dialog';
@@ -261,10 +262,10 @@ export class KitDetail {
       },
       error: (error: unknown) => {
         this.saving.set(false);
-        if (error instanceof AppError && error.status === 409 && error.code === 'stale') {
+        const conflict = staleConflict(error, kitTypeSchema);
+        if (conflict) {
           // Show the list as it is now; the person chooses to re-apply or leave it.
-          const current = kitTypeSchema.safeParse(error.current);
-          if (current.success) this.kit.set(current.data);
+          if (conflict.current) this.kit.set(conflict.current);
           else this.load(id);
           this.stale.set(request);
         } else if (error instanceof AppError) {

@@ -11,6 +11,7 @@ import {
   type KitTypeUpdate,
 } from '../../../shared/schemas/kits';
 import { AppError } from '../errors/app-error';
+import { staleConflict } from '../errors/conflict';
 import { FieldErrorPipe } from '../forms/field-error';
 import { formErrorMessage } from '../forms/server-errors';
 import { zodValidator } from '../forms/validators';
@@ -131,9 +132,9 @@ export class KitTypeEditDialog {
       error: (error: unknown) => {
         this.submitting.set(false);
         if (!(error instanceof AppError)) throw error;
-        const current = kitTypeSchema.safeParse(error.current);
-        if (error.status === 409 && error.code === 'stale' && current.success) {
-          this.base.set(current.data);
+        const current = staleConflict(error, kitTypeSchema)?.current;
+        if (current) {
+          this.base.set(current);
           this.stale.set(change);
           return;
         }

@@ -155,7 +155,7 @@ describe('TubFormDialog', () => {
     backend.expectOne(`/api/tubs/${TUB_ID}`).flush(
       {
         error: {
-          code: 'stale',
+          code: 'stale-version',
           message: 'Someone changed this tub after you opened it.',
           current: tub({ status: 'on-loan', version: 3 }),
         },
@@ -184,7 +184,7 @@ describe('TubFormDialog', () => {
     backend.expectOne(`/api/tubs/${TUB_ID}`).flush(
       {
         error: {
-          code: 'stale',
+          code: 'stale-version',
           message: 'Someone changed this tub after you opened it.',
           current: tub({ label: 'Tub 18', version: 3 }),
         },

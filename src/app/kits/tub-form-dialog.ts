@@ -17,6 +17,7 @@ import {
   type TubUpdate,
 } from '../../../shared/schemas/kits';
 import { AppError } from '../errors/app-error';
+import { staleConflict } from '../errors/conflict';
 import { FieldErrorPipe } from '../forms/field-error';
 import { formErrorMessage } from '../forms/server-errors';
 import { zodValidator } from '../forms/validators';
@@ -179,11 +180,11 @@ export class TubFormDialog {
       error: (error: unknown) => {
         this.submitting.set(false);
         if (!(error instanceof AppError)) throw error;
-        const current = tubSchema.safeParse(error.current);
+        const current = staleConflict(error, tubSchema)?.current;
         const before = this.base();
-        if (error.status === 409 && error.code === 'stale' && current.success && before) {
-          this.base.set(current.data);
-          this.stale.set({ change, changed: changedFields(before, current.data) });
+        if (current && before) {
+          this.base.set(current);
+          this.stale.set({ change, changed: changedFields(before, current) });
           return;
         }
         this.formError.set(formErrorMessage(this.form, error));

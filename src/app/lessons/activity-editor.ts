@@ -29,6 +29,7 @@ import {
 } from '../../../shared/schemas/lessons';
 import { requiredText, wholeNumber } from '../../../shared/schemas/units';
 import { AppError } from '../errors/app-error';
+import { staleConflict } from '../errors/conflict';
 import { Notifier } from '../errors/notifier';
 import { confirm } from '../forms/confirm-dialog';
 import { MatDialog } from '@angular/material/dialog';
@@ -195,10 +196,8 @@ export class ActivityEditor {
       error: (error: unknown) => {
         this.saving.set(false);
         if (!(error instanceof AppError)) return this.notifier.errorNotShownYet(error);
-        if (error.status === 409) {
-          const current = activitySchema.safeParse(error.current);
-          if (current.success) return this.conflict.set(current.data);
-        }
+        const current = staleConflict(error, activitySchema)?.current;
+        if (current) return this.conflict.set(current);
         this.showDetails(error);
       },
     });
@@ -263,10 +262,8 @@ export class ActivityEditor {
         this.closed.emit();
       },
       error: (error: unknown) => {
-        if (error instanceof AppError && error.status === 409) {
-          const current = activitySchema.safeParse(error.current);
-          if (current.success) return this.conflict.set(current.data);
-        }
+        const current = staleConflict(error, activitySchema)?.current;
+        if (current) return this.conflict.set(current);
         this.formError.set(error instanceof Error ? error.message : 'Not deleted.');
       },
     });

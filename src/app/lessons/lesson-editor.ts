@@ -43,6 +43,7 @@ import {
 } from '../../../shared/schemas/lessons';
 import type { BellPeriod } from '../../../shared/schemas/school';
 import { AppError } from '../errors/app-error';
+import { ORDER_CONFLICTS, staleConflict } from '../errors/conflict';
 import { Notifier } from '../errors/notifier';
 import { FieldErrorPipe } from '../forms/field-error';
 import { formErrorMessage } from '../forms/server-errors';
@@ -283,17 +284,15 @@ export class LessonEditor implements HasUnsavedChanges {
     this.saving.set(false);
     if (!(error instanceof AppError)) return this.notifier.errorNotShownYet(error);
     const lesson = this.lesson();
-    if (error.status === 409 && lesson) {
-      const current = lessonSchema.safeParse(error.current);
-      if (current.success) {
-        const differs = changedFields(lesson, lessonBody(formValueOf(current.data)));
-        this.conflict.set({
-          current: current.data,
-          change,
-          changedFields: Object.keys(differs).map((k) => FIELD_LABELS[k as keyof typeof differs]),
-        });
-        return;
-      }
+    const current = staleConflict(error, lessonSchema)?.current;
+    if (current && lesson) {
+      const differs = changedFields(lesson, lessonBody(formValueOf(current)));
+      this.conflict.set({
+        current,
+        change,
+        changedFields: Object.keys(differs).map((k) => FIELD_LABELS[k as keyof typeof differs]),
+      });
+      return;
     }
     this.formError.set(formErrorMessage(this.form, error, (e) => e.message, SERVER_PATHS));
   }
@@ -334,10 +333,10 @@ export class LessonEditor implements HasUnsavedChanges {
           this.activities.set(saved.activities);
         },
         error: (error: unknown) => {
-          const current = error instanceof AppError ? lessonSchema.safeParse(error.current) : null;
-          if (current?.success) {
-            this.activities.set(current.data.activities);
-            if (!this.form.dirty) this.fill(current.data);
+          const current = staleConflict(error, lessonSchema, ORDER_CONFLICTS)?.current;
+          if (current) {
+            this.activities.set(current.activities);
+            if (!this.form.dirty) this.fill(current);
             this.orderMessage.set(
               'Someone changed this lesson meanwhile, so the new order was not saved. The current order is shown; move the activity again.',
             );

@@ -8,7 +8,7 @@ import { MatProgressBarHarness } from '@angular/material/progress-bar/testing';
 import { MatSnackBarHarness } from '@angular/material/snack-bar/testing';
 import { MatTableHarness } from '@angular/material/table/testing';
 import type { PrepPlan } from '../../../shared/prep/index';
-import { errorBody, testProviders } from '../testing/test-providers';
+import { errorBody, settleReads, testProviders } from '../testing/test-providers';
 import { LessonView } from './lesson-view';
 import { workedExampleLesson, workedExampleParts, workedExamplePlan } from './worked-example';
 
@@ -42,7 +42,9 @@ describe('LessonView', () => {
     fixture.detectChanges();
     backend.expectOne('/api/lessons/lesson-2').flush(workedExampleLesson());
     backend.expectOne('/api/lessons/lesson-2/prep').flush(plan);
-    await fixture.whenStable();
+    // Reads are resources: run their effects so the parts read (which needs the lesson) starts;
+    // the page is stable only once every read has its answer.
+    await settleReads();
     backend
       .expectOne('/api/kit-types/kit-rover')
       .flush({ kitType: { ...KIT_SUMMARY, parts: workedExampleParts() } });
@@ -64,6 +66,7 @@ describe('LessonView', () => {
     const changed: PrepPlan = { ...plan, shortfalls: plan.shortfalls.filter((s) => s.group !== 2) };
     expect(text()).toMatch(/Group 2 is short/);
     window.dispatchEvent(new Event('focus'));
+    await settleReads();
     backend.expectOne('/api/lessons/lesson-2/prep').flush(changed);
     await fixture.whenStable();
     expect(text()).not.toMatch(/Group 2 is short/);
@@ -138,7 +141,7 @@ describe('LessonView', () => {
     expect(patch.request.method).toBe('PATCH');
     expect(patch.request.body).toEqual({ version: 3, groupSize: 5 });
     patch.flush(workedExampleLesson({ version: 4, groupSize: 5 }));
-    await fixture.whenStable();
+    await settleReads();
     const recomputed = workedExamplePlan({
       lesson: { startsAt: '2026-07-28T11:10', endsAt: '2026-07-28T12:00', groupSize: 5 },
     });
@@ -154,7 +157,7 @@ describe('LessonView', () => {
     backend.expectOne('/api/lessons/lesson-2').flush(
       {
         error: {
-          code: 'stale',
+          code: 'stale-version',
           message: 'Changed.',
           current: workedExampleLesson({ version: 5, groupSize: 4 }),
         },
@@ -168,7 +171,7 @@ describe('LessonView', () => {
     const again = backend.expectOne('/api/lessons/lesson-2');
     expect(again.request.body).toEqual({ version: 5, groupSize: 5 });
     again.flush(workedExampleLesson({ version: 6, groupSize: 5 }));
-    await fixture.whenStable();
+    await settleReads();
     backend.expectOne('/api/lessons/lesson-2/prep').flush(plan);
     await fixture.whenStable();
     expect(text()).not.toContain('Someone else changed this lesson');

@@ -9,18 +9,21 @@ import {
   inject,
   input,
   signal,
+  untracked,
 } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatCheckboxModule } from '@angular/material/checkbox';
 import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { RouterLink } from '@angular/router';
-import { forkJoin, of } from 'rxjs';
+import { of } from 'rxjs';
 import { catchError } from 'rxjs/operators';
 import type { PrepPlan, PrepSuggestion, PrepTask } from '../../../shared/prep/index';
 import type { Part } from '../../../shared/schemas/kits';
 import { lessonSchema, type Lesson } from '../../../shared/schemas/lessons';
 import { AppError } from '../errors/app-error';
+import { staleConflict } from '../errors/conflict';
+import { apiResource, sameAnswer } from '../http/resource';
 import { Notifier } from '../errors/notifier';
 import { CAUTIONS_DEFER, SAFETY_CAUTIONS } from './cautions';
 import { clockOn, clockTime, dayLabel } from './clock';
@@ -28,7 +31,7 @@ import { groupSizeFor } from './group-size';
 import { LessonsApi, type Printable } from './lessons-api';
 import { saveBlob } from '../files/transfer';
 import { GroupBorrowsPipe } from './group-borrows';
-import { PullList } from './pull-list';
+import { PullList, type PartInfo } from './pull-list';
 import { Timeline } from './timeline';
 
 type GroupsSuggestion = Extract<PrepSuggestion, { kind: 'groups' }>;
@@ -66,13 +69,33 @@ export class LessonView {
   /** Query `?group=N`: the group whose pull list to scroll to. */
   readonly group = input<string | undefined>(undefined);
 
+  private readonly lessonRead = apiResource({
+    params: () => this.id(),
+    load: (id: string) => this.api.lesson(id),
+  });
+  /** Unchanged plans (by value) keep the shown one, so ticks and scrolling stay put. */
+  private readonly planRead = apiResource({
+    params: () => this.id(),
+    load: (id: string, mode) => this.api.prep(id, mode.quiet),
+    equal: sameAnswer,
+  });
+  /** Colours and compartments of the parts; the names come with the plan. */
+  private readonly partsRead = apiResource({
+    params: () => this.lessonRead.value()?.kitType.id,
+    load: (kitTypeId: string) => this.api.parts(kitTypeId).pipe(catchError(() => of([]))),
+  });
+
   protected readonly cautions = SAFETY_CAUTIONS;
   protected readonly cautionsDefer = CAUTIONS_DEFER;
-  protected readonly lesson = signal<Lesson | null>(null);
-  protected readonly plan = signal<PrepPlan | null>(null);
-  protected readonly parts = signal<ReadonlyMap<string, Part>>(new Map());
-  protected readonly loading = signal(true);
-  protected readonly loadError = signal<string | null>(null);
+  protected readonly lesson = computed(() => this.lessonRead.value() ?? null);
+  protected readonly plan = computed(() => this.planRead.value() ?? null);
+  protected readonly parts = computed(() =>
+    partsByCode(this.partsRead.value() ?? [], this.planRead.value()?.partNames ?? {}),
+  );
+  protected readonly loading = computed(() => this.lessonRead.loading() || this.planRead.loading());
+  protected readonly loadError = computed(
+    () => this.lessonRead.error() ?? this.planRead.error() ?? null,
+  );
   protected readonly saving = signal(false);
   protected readonly conflict = signal<Conflict | null>(null);
   protected readonly download = signal<{ file: Printable; fraction: number | null } | null>(null);
@@ -88,13 +111,16 @@ export class LessonView {
   );
 
   constructor() {
-    effect(() => this.load(this.id()));
+    // Scroll to `?group=N` once the lesson and its plan are first shown.
+    effect(() => {
+      if (this.lesson() && this.plan()) untracked(() => this.scrollToGroup());
+    });
     // The plan follows the lesson, its materials, the tubs and the school's settings, which other
-    // people change elsewhere: recompute when the page comes back into view and every 20 s while
-    // it is visible.
+    // people change elsewhere: read it again when the page comes back into view and every 20 s
+    // while it is visible.
     const refresh = () => {
       if (document.visibilityState === 'visible' && !this.loading() && !this.saving()) {
-        this.refreshPrep(this.id(), true);
+        this.planRead.refresh();
       }
     };
     const timer = setInterval(refresh, 20_000);
@@ -105,10 +131,6 @@ export class LessonView {
       document.removeEventListener('visibilitychange', refresh);
       window.removeEventListener('focus', refresh);
     });
-  }
-
-  protected partName(code: string): string {
-    return this.parts().get(code)?.name ?? code;
   }
 
   protected clock(value: string): string {
@@ -156,13 +178,14 @@ export class LessonView {
   protected reapply(): void {
     const conflict = this.conflict();
     if (!conflict?.current) return;
-    this.lesson.set(conflict.current);
+    this.lessonRead.set(conflict.current);
     this.saveGroupSize(conflict.current.version, conflict.groupSize);
   }
 
   protected reload(): void {
     this.conflict.set(null);
-    this.load(this.id());
+    this.lessonRead.reload();
+    this.planRead.reload();
   }
 
   protected print(file: Printable): void {
@@ -182,64 +205,22 @@ export class LessonView {
   }
 
   private saveGroupSize(version: number, groupSize: number): void {
-    const id = this.id();
     this.saving.set(true);
     this.conflict.set(null);
-    this.api.update(id, { version, groupSize }).subscribe({
+    this.api.update(this.id(), { version, groupSize }).subscribe({
       next: (lesson) => {
         this.saving.set(false);
-        this.lesson.set(lesson);
+        this.lessonRead.set(lesson);
         this.notifier.info(`Group size is now ${groupSize}. The prep plan is recomputed.`);
-        this.refreshPrep(id);
+        this.planRead.reload();
       },
       error: (error: unknown) => {
         this.saving.set(false);
-        if (error instanceof AppError && error.status === 409) {
-          const current = lessonSchema.safeParse(error.current);
-          this.conflict.set({ groupSize, current: current.success ? current.data : null });
-        } else if (error instanceof AppError) {
-          this.notifier.error(error.message);
-        }
+        const conflict = staleConflict(error, lessonSchema);
+        if (conflict) this.conflict.set({ groupSize, current: conflict.current });
+        else if (error instanceof AppError) this.notifier.error(error.message);
       },
     });
-  }
-
-  private load(id: string): void {
-    this.loading.set(true);
-    this.loadError.set(null);
-    forkJoin({ lesson: this.api.lesson(id), plan: this.api.prep(id) }).subscribe({
-      next: ({ lesson, plan }) => {
-        this.lesson.set(lesson);
-        this.plan.set(plan);
-        this.loading.set(false);
-        this.loadParts(lesson.kitType.id);
-        this.scrollToGroup();
-      },
-      error: (error: unknown) => {
-        this.loading.set(false);
-        this.loadError.set(error instanceof AppError ? error.message : 'The lesson did not load.');
-      },
-    });
-  }
-
-  private refreshPrep(id: string, quiet = false): void {
-    this.api.prep(id, quiet).subscribe({
-      next: (plan) => {
-        // Only a changed plan replaces the shown one, so ticks and scrolling stay put.
-        if (JSON.stringify(plan) !== JSON.stringify(this.plan())) this.plan.set(plan);
-      },
-      error: () => {
-        // A background refresh that fails keeps the plan shown; a foreground one was reported.
-      },
-    });
-  }
-
-  /** Part names are a nicety: without them the codes stand in (the error is already shown). */
-  private loadParts(kitTypeId: string): void {
-    this.api
-      .parts(kitTypeId)
-      .pipe(catchError(() => of([] as Part[])))
-      .subscribe((parts) => this.parts.set(new Map(parts.map((p) => [p.code, p]))));
   }
 
   private scrollToGroup(): void {
@@ -251,6 +232,18 @@ export class LessonView {
       { injector: this.injector },
     );
   }
+}
+
+/** The parts list by code, named as the plan names them (a code no list has stands for itself). */
+function partsByCode(
+  parts: readonly Part[],
+  names: Readonly<Record<string, string>>,
+): ReadonlyMap<string, PartInfo> {
+  const byCode = new Map<string, PartInfo>(
+    Object.entries(names).map(([code, name]) => [code, { name }]),
+  );
+  for (const part of parts) byCode.set(part.code, { ...part, name: names[part.code] ?? part.name });
+  return byCode;
 }
 
 function fileName(lesson: Lesson | null, file: Printable): string {

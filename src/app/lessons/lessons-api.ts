@@ -1,13 +1,22 @@
 import { HttpClient } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
 import { map, type Observable } from 'rxjs';
+import * as z from 'zod';
 import { kitTypeResponseSchema, type Part } from '../../../shared/schemas/kits';
 import { lessonSchema, type Lesson, type LessonUpdate } from '../../../shared/schemas/lessons';
-import type { PrepPlan } from '../../../shared/prep/index';
 import { prepPlanSchema } from '../../../shared/prep/plan-schema';
 import { downloadWithProgress, type DownloadEvent } from '../files/transfer';
 import { callerShowsErrors } from '../errors/error-context';
 import { parseWith } from '../errors/parse';
+
+/**
+ * The prep answer: the plan and the names of its parts (`partNames`, by part code). Optional here
+ * until every server sends it; a code without a name is shown as the code.
+ */
+const prepAnswerSchema = prepPlanSchema.extend({
+  partNames: z.record(z.string(), z.string()).optional(),
+});
+export type PrepAnswer = z.output<typeof prepAnswerSchema>;
 
 /** The printables a lesson offers (`/api/lessons/:id/pack.pdf`, `/labels.pdf`, `/prep.ics`). */
 export type Printable = 'pack.pdf' | 'labels.pdf' | 'prep.ics';
@@ -22,16 +31,16 @@ export class LessonsApi {
   }
 
   /** The prep plan; `quiet` for background refreshes, whose errors the caller ignores. */
-  prep(id: string, quiet = false): Observable<PrepPlan> {
+  prep(id: string, quiet = false): Observable<PrepAnswer> {
     return this.http
       .get(
         `/api/lessons/${encodeURIComponent(id)}/prep`,
         quiet ? { context: callerShowsErrors() } : {},
       )
-      .pipe(parseWith(prepPlanSchema));
+      .pipe(parseWith(prepAnswerSchema));
   }
 
-  /** The parts list, for names, colours and compartments (the plan only names part codes). */
+  /** The parts list, for colours and compartments (the plan names its parts itself). */
   parts(kitTypeId: string): Observable<Part[]> {
     return this.http.get(`/api/kit-types/${encodeURIComponent(kitTypeId)}`).pipe(
       parseWith(kitTypeResponseSchema),

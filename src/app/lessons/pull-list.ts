@@ -3,6 +3,9 @@ import { MatTableModule } from '@angular/material/table';
 import type { PrepBorrow, PrepLine } from '../../../shared/prep/index';
 import type { Part } from '../../../shared/schemas/kits';
 
+/** What a pull list shows of a part: its name, and its colour and compartment when known. */
+export type PartInfo = Pick<Part, 'name'> & Partial<Pick<Part, 'colour' | 'compartment'>>;
+
 /** One row of a pull list, as the table shows it. */
 export interface PullRow {
   code: string;
@@ -71,7 +74,7 @@ export interface PullRow {
 })
 export class PullList {
   readonly lines = input.required<readonly PrepLine[]>();
-  readonly parts = input.required<ReadonlyMap<string, Part>>();
+  readonly parts = input.required<ReadonlyMap<string, PartInfo>>();
   readonly caption = input.required<string>();
   readonly borrows = input<readonly PrepBorrow[]>([]);
 
@@ -84,7 +87,7 @@ export class PullList {
 /** A plan line joined with its part and the borrows of the same part. */
 export function pullRow(
   line: PrepLine,
-  parts: ReadonlyMap<string, Part>,
+  parts: ReadonlyMap<string, PartInfo>,
   borrows: readonly PrepBorrow[],
 ): PullRow {
   const part = parts.get(line.partCode);

@@ -209,7 +209,7 @@ describe('SchoolSettingsPage', () => {
     backend.expectOne({ method: 'PUT', url: '/api/school' }).flush(
       {
         error: {
-          code: 'stale',
+          code: 'stale-version',
           message: 'Someone saved the school settings after you opened them.',
           current,
         },

@@ -24,6 +24,7 @@ import {
   type SchoolSettings,
 } from '../../../shared/schemas/school';
 import { AppError, UNKNOWN_MESSAGE } from '../errors/app-error';
+import { staleConflict } from '../errors/conflict';
 import { Notifier } from '../errors/notifier';
 import { FieldErrorPipe } from '../forms/field-error';
 import { SchemaIssues, revalidate } from './schema-issues';
@@ -258,9 +259,9 @@ export class SchoolSettingsPage implements HasUnsavedChanges {
       this.message.set(UNKNOWN_MESSAGE);
       return;
     }
-    if (e.status === 409 && e.code === 'stale') {
-      const parsed = schoolSettingsSchema.safeParse(e.current);
-      const current = parsed.success ? parsed.data : null;
+    const conflict = staleConflict(e, schoolSettingsSchema);
+    if (conflict) {
+      const current = conflict.current;
       const parts =
         current && this.baseline ? changedParts(this.baseline, settingsBody(current)) : [];
       this.stale.set({ current, changed: listInWords(parts), mine });

@@ -1,4 +1,5 @@
 import { provideHttpClient, withInterceptors, withXsrfConfiguration } from '@angular/common/http';
+import { TestBed } from '@angular/core/testing';
 import { provideHttpClientTesting } from '@angular/common/http/testing';
 import {
   ChangeDetectionStrategy,
@@ -52,4 +53,14 @@ export function errorBody(
   details?: { path: string; message: string }[],
 ) {
   return { error: { code, message, ...(details ? { details } : {}) } };
+}
+
+/**
+ * Lets resource reads (src/app/http/resource.ts) take the answers just flushed, which arrive a
+ * task later, and runs their effects, so reads that wait on them start. `whenStable()` cannot do
+ * this while a read is still waiting for its (not yet flushed) answer.
+ */
+export async function settleReads(): Promise<void> {
+  await new Promise((resolve) => setTimeout(resolve));
+  TestBed.tick();
 }

@@ -43,6 +43,7 @@ import {
   type UnitVisibility,
 } from '../../../shared/schemas/units';
 import { AppError } from '../errors/app-error';
+import { ORDER_CONFLICTS, staleConflict } from '../errors/conflict';
 import { Notifier } from '../errors/notifier';
 import { FieldErrorPipe } from '../forms/field-error';
 import { formErrorMessage } from '../forms/server-errors';
@@ -301,9 +302,8 @@ export class UnitEditor implements HasUnsavedChanges {
       this.notifier.errorNotShownYet(error);
       return;
     }
-    const current = unitSchema.safeParse(error.current);
-    if (error.status === 409 && current.success) {
-      const theirs = current.data;
+    const theirs = staleConflict(error, unitSchema, ORDER_CONFLICTS)?.current;
+    if (theirs) {
       // A new order only fits when the lessons are still the same ones.
       const orderFits =
         retry?.kind !== 'order' ||
