@@ -1,22 +1,18 @@
 import { ChangeDetectionStrategy, Component, OnInit, inject, signal } from '@angular/core';
-import { takeUntilDestroyed } from '@angular/core/rxjs-interop';
 import { FormControl, FormGroup, FormGroupDirective, ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatCardModule } from '@angular/material/card';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
-import {
-  PASSWORD_MIN,
-  newPasswordSchema,
-  passwordChangeSchema,
-} from '../../../shared/schemas/auth';
+import { passwordChangeSchema } from '../../../shared/schemas/auth';
 import { ROLE_LABELS, personNameSchema } from '../../../shared/schemas/common';
 import { Session } from '../auth/session';
 import { AppError } from '../errors/app-error';
 import { Notifier } from '../errors/notifier';
 import { FieldErrorPipe } from '../forms/field-error';
 import { formErrorMessage, showFieldError } from '../forms/server-errors';
-import { matchesSibling, zodValidator } from '../forms/validators';
+import { NEW_PASSWORD_WORDS, PasswordPair, passwordPair } from '../forms/password-pair';
+import { zodValidator } from '../forms/validators';
 import { AccountApi } from './account-api';
 
 /** Shown under "Current password" when it is wrong. */
@@ -32,6 +28,7 @@ export const WRONG_PASSWORD_MESSAGE = "That isn't your current password.";
     MatInputModule,
     MatButtonModule,
     FieldErrorPipe,
+    PasswordPair,
   ],
   templateUrl: './account.html',
   styleUrl: './account.scss',
@@ -44,7 +41,6 @@ export class Account implements OnInit {
 
   protected readonly user = this.session.user;
   protected readonly roleLabels = ROLE_LABELS;
-  protected readonly minLength = PASSWORD_MIN;
 
   protected readonly nameForm = new FormGroup({
     name: new FormControl(this.session.user()?.name ?? '', {
@@ -55,31 +51,17 @@ export class Account implements OnInit {
   protected readonly savingName = signal(false);
   protected readonly nameError = signal<string | null>(null);
 
+  protected readonly newPassword = passwordPair(NEW_PASSWORD_WORDS);
   protected readonly passwordForm = new FormGroup({
     currentPassword: new FormControl('', {
       nonNullable: true,
       validators: [zodValidator(passwordChangeSchema.shape.currentPassword)],
     }),
-    newPassword: new FormControl('', {
-      nonNullable: true,
-      validators: [zodValidator(newPasswordSchema, 'Enter a new password.')],
-    }),
-    confirm: new FormControl('', {
-      nonNullable: true,
-      validators: [
-        zodValidator(newPasswordSchema, 'Enter the new password again.'),
-        matchesSibling('newPassword', "The two passwords don't match."),
-      ],
-    }),
+    newPassword: this.newPassword.password,
+    confirm: this.newPassword.confirm,
   });
   protected readonly savingPassword = signal(false);
   protected readonly passwordError = signal<string | null>(null);
-
-  constructor() {
-    this.passwordForm.controls.newPassword.valueChanges
-      .pipe(takeUntilDestroyed())
-      .subscribe(() => this.passwordForm.controls.confirm.updateValueAndValidity());
-  }
 
   ngOnInit(): void {
     this.api.get().subscribe((user) => {

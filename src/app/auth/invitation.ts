@@ -1,6 +1,5 @@
 import { DatePipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, OnInit, inject, input, signal } from '@angular/core';
-import { takeUntilDestroyed } from '@angular/core/rxjs-interop';
 import { FormControl, FormGroup, ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatCardModule } from '@angular/material/card';
@@ -8,12 +7,13 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { Router } from '@angular/router';
-import { PASSWORD_MIN, newPasswordSchema, type InvitationInfo } from '../../../shared/schemas/auth';
+import type { InvitationInfo } from '../../../shared/schemas/auth';
 import { ROLE_LABELS, personNameSchema } from '../../../shared/schemas/common';
 import { AppError } from '../errors/app-error';
 import { FieldErrorPipe } from '../forms/field-error';
 import { formErrorMessage, showFieldError } from '../forms/server-errors';
-import { matchesSibling, zodValidator } from '../forms/validators';
+import { FIRST_PASSWORD_WORDS, PasswordPair, passwordPair } from '../forms/password-pair';
+import { zodValidator } from '../forms/validators';
 import { AuthApi } from './auth-api';
 import { Session } from './session';
 
@@ -39,6 +39,7 @@ type Load =
     MatButtonModule,
     MatProgressBarModule,
     FieldErrorPipe,
+    PasswordPair,
   ],
   templateUrl: './invitation.html',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -52,34 +53,19 @@ export class Invitation implements OnInit {
   readonly token = input.required<string>();
 
   protected readonly roleLabels = ROLE_LABELS;
-  protected readonly minLength = PASSWORD_MIN;
   protected readonly invalidMessage = INVITATION_INVALID_MESSAGE;
   protected readonly load = signal<Load>({ state: 'loading' });
   protected readonly submitting = signal(false);
   protected readonly formError = signal<string | null>(null);
+  protected readonly firstPassword = passwordPair(FIRST_PASSWORD_WORDS);
   protected readonly form = new FormGroup({
     name: new FormControl('', {
       nonNullable: true,
       validators: [zodValidator(personNameSchema, 'Enter your name as colleagues know it.')],
     }),
-    password: new FormControl('', {
-      nonNullable: true,
-      validators: [zodValidator(newPasswordSchema, 'Choose a password.')],
-    }),
-    confirm: new FormControl('', {
-      nonNullable: true,
-      validators: [
-        zodValidator(newPasswordSchema, 'Enter the password again.'),
-        matchesSibling('password', "The two passwords don't match."),
-      ],
-    }),
+    password: this.firstPassword.password,
+    confirm: this.firstPassword.confirm,
   });
-
-  constructor() {
-    this.form.controls.password.valueChanges
-      .pipe(takeUntilDestroyed())
-      .subscribe(() => this.form.controls.confirm.updateValueAndValidity());
-  }
 
   ngOnInit(): void {
     this.api.invitation(this.token()).subscribe({

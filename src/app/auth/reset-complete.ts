@@ -1,16 +1,13 @@
 import { ChangeDetectionStrategy, Component, inject, input, signal } from '@angular/core';
-import { takeUntilDestroyed } from '@angular/core/rxjs-interop';
 import { FormControl, FormGroup, ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatCardModule } from '@angular/material/card';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { Router, RouterLink } from '@angular/router';
-import { PASSWORD_MIN, newPasswordSchema } from '../../../shared/schemas/auth';
 import { AppError } from '../errors/app-error';
-import { FieldErrorPipe } from '../forms/field-error';
 import { formErrorMessage, showFieldError } from '../forms/server-errors';
-import { matchesSibling, zodValidator } from '../forms/validators';
+import { NEW_PASSWORD_WORDS, PasswordPair, passwordPair } from '../forms/password-pair';
 import { AuthApi } from './auth-api';
 
 /** Shown when a reset link was already used or has run out. */
@@ -26,7 +23,7 @@ export const RESET_LINK_INVALID_MESSAGE = 'This reset link has expired or has al
     MatInputModule,
     MatButtonModule,
     RouterLink,
-    FieldErrorPipe,
+    PasswordPair,
   ],
   templateUrl: './reset-complete.html',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -38,30 +35,15 @@ export class ResetComplete {
   /** From the route. */
   readonly token = input.required<string>();
 
-  protected readonly minLength = PASSWORD_MIN;
   protected readonly invalidMessage = RESET_LINK_INVALID_MESSAGE;
+  protected readonly newPassword = passwordPair(NEW_PASSWORD_WORDS);
   protected readonly form = new FormGroup({
-    password: new FormControl('', {
-      nonNullable: true,
-      validators: [zodValidator(newPasswordSchema, 'Enter a new password.')],
-    }),
-    confirm: new FormControl('', {
-      nonNullable: true,
-      validators: [
-        zodValidator(newPasswordSchema, 'Enter the new password again.'),
-        matchesSibling('password', "The two passwords don't match."),
-      ],
-    }),
+    password: this.newPassword.password,
+    confirm: this.newPassword.confirm,
   });
   protected readonly submitting = signal(false);
   protected readonly linkInvalid = signal(false);
   protected readonly formError = signal<string | null>(null);
-
-  constructor() {
-    this.form.controls.password.valueChanges
-      .pipe(takeUntilDestroyed())
-      .subscribe(() => this.form.controls.confirm.updateValueAndValidity());
-  }
 
   protected submit(): void {
     this.formError.set(null);

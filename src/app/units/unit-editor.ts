@@ -30,12 +30,8 @@ import {
   OVERVIEW_MAX,
   distinctIds,
   markdownText,
-  plainText,
-  requiredText,
-  termSchema,
   unitSchema,
   unitVisibilitySchema,
-  yearLevelSchema,
   type PersonRef,
   type Unit,
   type UnitLesson,
@@ -50,8 +46,8 @@ import { formErrorMessage } from '../forms/server-errors';
 import { zodValidator } from '../forms/validators';
 import { clockTime, dayLabel } from '../lessons/clock';
 import { confirm } from '../forms/confirm-dialog';
-import { TERMS, YEAR_LEVELS, yearLabel } from './labels';
 import { OutcomePicker } from './outcome-picker';
+import { UnitFields, unitFieldControls } from './unit-fields';
 import {
   changedFields,
   describeChanges,
@@ -99,6 +95,7 @@ interface Conflict {
     MatSelectModule,
     FieldErrorPipe,
     OutcomePicker,
+    UnitFields,
   ],
   templateUrl: './unit-editor.html',
   styleUrl: './unit-editor.scss',
@@ -114,8 +111,6 @@ export class UnitEditor implements HasUnsavedChanges {
   /** Route parameter `:id`. */
   readonly id = input.required<string>();
 
-  protected readonly yearLevels = YEAR_LEVELS;
-  protected readonly terms = TERMS;
   protected readonly overviewMax = OVERVIEW_MAX;
   /** The unit as last read from the server: the base every change is worked out against. */
   protected readonly unit = signal<Unit | null>(null);
@@ -130,11 +125,9 @@ export class UnitEditor implements HasUnsavedChanges {
   private leaving = false;
 
   private readonly fb = inject(NonNullableFormBuilder);
+  protected readonly fields = unitFieldControls();
   protected readonly form = this.fb.group({
-    title: ['', zodValidator(requiredText('a title', 200))],
-    yearLevel: [null as number | null, zodValidator(yearLevelSchema, 'Choose a year level.')],
-    learningArea: ['', zodValidator(plainText(100))],
-    term: [null as number | null, zodValidator(termSchema.nullable())],
+    ...this.fields,
     overview: ['', zodValidator(markdownText(OVERVIEW_MAX))],
     visibility: ['private' as UnitVisibility, zodValidator(unitVisibilitySchema)],
     outcomes: this.fb.control<UnitOutcome[]>([], outcomesValidator),
@@ -186,10 +179,6 @@ export class UnitEditor implements HasUnsavedChanges {
   protected onBeforeUnload(event: BeforeUnloadEvent): void {
     // The browser asks its own question; the text cannot be chosen (HTML Living Standard).
     if (this.hasUnsavedChanges()) event.preventDefault();
-  }
-
-  protected year(level: number): string {
-    return yearLabel(level);
   }
 
   protected when(l: UnitLesson): string {

@@ -1,0 +1,119 @@
+import { ChangeDetectionStrategy, Component, input } from '@angular/core';
+import { toObservable, toSignal } from '@angular/core/rxjs-interop';
+import { FormControl, ReactiveFormsModule } from '@angular/forms';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatInputModule } from '@angular/material/input';
+import { MatSelectModule } from '@angular/material/select';
+import { merge, switchMap } from 'rxjs';
+import {
+  plainText,
+  requiredText,
+  termSchema,
+  yearLevelSchema,
+} from '../../../shared/schemas/units';
+import { FieldErrorPipe } from '../forms/field-error';
+import { zodValidator } from '../forms/validators';
+import { TERMS, YEAR_LEVELS, yearLabel } from './labels';
+
+/** A unit's title, year level, learning area and term, as form controls. */
+export interface UnitFieldControls {
+  title: FormControl<string>;
+  yearLevel: FormControl<number | null>;
+  learningArea: FormControl<string>;
+  term: FormControl<number | null>;
+}
+
+/**
+ * The controls of a unit's main fields, validated as the server's zod schema; the new-unit form
+ * and the unit editor spread them into their own FormGroup and show them with `<app-unit-fields>`.
+ */
+export function unitFieldControls(): UnitFieldControls {
+  return {
+    title: new FormControl('', {
+      nonNullable: true,
+      validators: zodValidator(requiredText('a title', 200)),
+    }),
+    yearLevel: new FormControl<number | null>(null, {
+      validators: zodValidator(yearLevelSchema, 'Choose a year level.'),
+    }),
+    learningArea: new FormControl('', {
+      nonNullable: true,
+      validators: zodValidator(plainText(100)),
+    }),
+    term: new FormControl<number | null>(null, {
+      validators: zodValidator(termSchema.nullable()),
+    }),
+  };
+}
+
+/** The unit's main fields inside the page's own form (a grid or a stack, as the page lays out). */
+@Component({
+  selector: 'app-unit-fields',
+  imports: [
+    ReactiveFormsModule,
+    MatFormFieldModule,
+    MatInputModule,
+    MatSelectModule,
+    FieldErrorPipe,
+  ],
+  template: `
+    <!-- Reading the controls' events re-renders this OnPush view when the page's form submits. -->
+    @let _ = changed();
+    <mat-form-field class="wide">
+      <mat-label>Title</mat-label>
+      <input matInput [formControl]="fields().title" required />
+      <mat-error>{{ fields().title.errors | fieldError }}</mat-error>
+    </mat-form-field>
+    <mat-form-field>
+      <mat-label>Year level</mat-label>
+      <mat-select [formControl]="fields().yearLevel" required>
+        @for (level of yearLevels; track level) {
+          <mat-option [value]="level">{{ year(level) }}</mat-option>
+        }
+      </mat-select>
+      <mat-error>{{ fields().yearLevel.errors | fieldError }}</mat-error>
+    </mat-form-field>
+    <mat-form-field>
+      <mat-label>Learning area</mat-label>
+      <input matInput [formControl]="fields().learningArea" />
+      <mat-error>{{ fields().learningArea.errors | fieldError }}</mat-error>
+    </mat-form-field>
+    <mat-form-field>
+      <mat-label>Term</mat-label>
+      <mat-select [formControl]="fields().term">
+        <mat-option [value]="null">No term</mat-option>
+        @for (t of terms; track t) {
+          <mat-option [value]="t">Term {{ t }}</mat-option>
+        }
+      </mat-select>
+      <mat-error>{{ fields().term.errors | fieldError }}</mat-error>
+    </mat-form-field>
+  `,
+  styles: `
+    :host {
+      display: contents;
+    }
+    .wide {
+      grid-column: 1 / -1;
+    }
+  `,
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class UnitFields {
+  readonly fields = input.required<UnitFieldControls>();
+
+  protected readonly yearLevels = YEAR_LEVELS;
+  protected readonly terms = TERMS;
+  /** The last event of any field (e.g. the page marking all touched on submit). */
+  protected readonly changed = toSignal(
+    toObservable(this.fields).pipe(
+      switchMap((f) =>
+        merge(f.title.events, f.yearLevel.events, f.learningArea.events, f.term.events),
+      ),
+    ),
+  );
+
+  protected year(level: number): string {
+    return yearLabel(level);
+  }
+}
