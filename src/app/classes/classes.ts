@@ -1,11 +1,4 @@
-import {
-  ChangeDetectionStrategy,
-  Component,
-  OnInit,
-  computed,
-  inject,
-  signal,
-} from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
 import { MatIconModule } from '@angular/material/icon';
@@ -15,6 +8,7 @@ import { yearLevelLabel, type SchoolClass } from '../../../shared/schemas/classe
 import { Session } from '../auth/session';
 import { AppError } from '../errors/app-error';
 import { Notifier } from '../errors/notifier';
+import { apiResource } from '../http/resource';
 import { ClassForm } from './class-form';
 import { ClassesApi } from './classes-api';
 import { ClassDeleteDialog } from './delete-dialog';
@@ -27,14 +21,16 @@ import { ClassDeleteDialog } from './delete-dialog';
   styleUrl: './classes.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
-export class Classes implements OnInit {
+export class Classes {
   private readonly api = inject(ClassesApi);
   private readonly dialog = inject(MatDialog);
   private readonly notifier = inject(Notifier);
   private readonly session = inject(Session);
 
-  protected readonly loading = signal(true);
-  protected readonly classes = signal<SchoolClass[]>([]);
+  /** The classes as read, then as changed here (added, saved, deleted). */
+  private readonly read = apiResource({ load: () => this.api.list() });
+  protected readonly loading = this.read.loading;
+  protected readonly classes = computed<SchoolClass[]>(() => this.read.value() ?? []);
   /** A refusal to show above the table (e.g. a class that lessons use). */
   protected readonly problem = signal<string | null>(null);
   protected readonly canEdit = computed(() =>
@@ -49,16 +45,6 @@ export class Classes implements OnInit {
     ...(this.canEdit() ? ['actions'] : []),
   ]);
   protected readonly yearLevelLabel = yearLevelLabel;
-
-  ngOnInit(): void {
-    this.api.list().subscribe({
-      next: (list) => {
-        this.classes.set(list);
-        this.loading.set(false);
-      },
-      error: () => this.loading.set(false),
-    });
-  }
 
   protected teachersText(c: SchoolClass): string {
     return c.teachers.map((t) => t.name || t.email).join(', ') || '—';
@@ -81,7 +67,7 @@ export class Classes implements OnInit {
         if (!confirmed) return;
         this.api.remove(c.id).subscribe({
           next: () => {
-            this.classes.update((list) => list.filter((x) => x.id !== c.id));
+            this.read.set(this.classes().filter((x) => x.id !== c.id));
             this.notifier.info(`${c.name} is deleted.`);
           },
           error: (error: unknown) => {
@@ -98,9 +84,8 @@ export class Classes implements OnInit {
       .afterClosed()
       .subscribe((saved?: SchoolClass) => {
         if (!saved) return;
-        this.classes.update((list) =>
-          c ? list.map((x) => (x.id === saved.id ? saved : x)) : [...list, saved],
-        );
+        const list = this.classes();
+        this.read.set(c ? list.map((x) => (x.id === saved.id ? saved : x)) : [...list, saved]);
         this.notifier.info(`${saved.name} is saved.`);
       });
   }

@@ -33,9 +33,9 @@ export interface ApiResource<T> {
 export interface ApiResourceOptions<P, T> {
   /**
    * What to load; undefined while there is nothing to load yet. A changed value (compared with
-   * `===`, so use ids or strings) loads again.
+   * `===`, so use ids or strings) loads again. Without it the read loads once.
    */
-  params: () => P | undefined;
+  params?: () => P | undefined;
   /** The API service's read (which parses the answer with its zod schema from shared/schemas). */
   load: (params: P, mode: ReadMode) => Observable<T>;
   /** When a reload's answer counts as unchanged, so the screen keeps what it shows. */
@@ -50,7 +50,7 @@ export interface ApiResourceOptions<P, T> {
 export function apiResource<P, T>(options: ApiResourceOptions<P, T>): ApiResource<T> {
   let quiet = false;
   // A computed, so an unchanged value (e.g. the same id from a newer record) does not reload.
-  const params = computed(options.params);
+  const params = computed(options.params ?? (() => true as P));
   const resource: ResourceRef<T | undefined> = rxResource<T | undefined, P | undefined>({
     params,
     stream: ({ params }): Observable<T | undefined> => {

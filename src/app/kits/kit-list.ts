@@ -1,11 +1,4 @@
-import {
-  ChangeDetectionStrategy,
-  Component,
-  OnInit,
-  computed,
-  inject,
-  signal,
-} from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
 import { MatIconModule } from '@angular/material/icon';
@@ -15,6 +8,7 @@ import { Router, RouterLink } from '@angular/router';
 import type { KitType, KitTypeSummary } from '../../../shared/schemas/kits';
 import { Session } from '../auth/session';
 import { Notifier } from '../errors/notifier';
+import { apiResource } from '../http/resource';
 import { KitTypeDialog } from './kit-type-dialog';
 import { KitsApi } from './kits-api';
 
@@ -107,7 +101,7 @@ export const KIT_EDITORS = ['admin', 'teacher'];
   `,
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
-export class KitList implements OnInit {
+export class KitList {
   private readonly api = inject(KitsApi);
   private readonly dialog = inject(MatDialog);
   private readonly notifier = inject(Notifier);
@@ -115,21 +109,12 @@ export class KitList implements OnInit {
   private readonly session = inject(Session);
 
   protected readonly columns = ['name', 'partCount', 'pieceCount', 'tubCount', 'lessonCount'];
-  protected readonly loading = signal(true);
-  protected readonly kitTypes = signal<KitTypeSummary[]>([]);
+  private readonly read = apiResource({ load: () => this.api.list() });
+  protected readonly loading = this.read.loading;
+  protected readonly kitTypes = computed<KitTypeSummary[]>(() => this.read.value() ?? []);
   protected readonly canEdit = computed(() =>
     KIT_EDITORS.includes(this.session.user()?.role ?? ''),
   );
-
-  ngOnInit(): void {
-    this.api.list().subscribe({
-      next: (list) => {
-        this.kitTypes.set(list);
-        this.loading.set(false);
-      },
-      error: () => this.loading.set(false),
-    });
-  }
 
   protected create(): void {
     this.dialog

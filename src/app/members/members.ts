@@ -2,7 +2,6 @@ import { DatePipe } from '@angular/common';
 import {
   ChangeDetectionStrategy,
   Component,
-  OnInit,
   computed,
   effect,
   inject,
@@ -23,6 +22,7 @@ import { ROLES, ROLE_LABELS, type Role } from '../../../shared/schemas/common';
 import type { Member } from '../../../shared/schemas/members';
 import { Session } from '../auth/session';
 import { Notifier } from '../errors/notifier';
+import { apiResource } from '../http/resource';
 import { DeactivateDialog, type DeactivateDialogData } from './deactivate-dialog';
 import { InviteDialog } from './invite-dialog';
 import { STATUS_LABELS } from './labels';
@@ -47,7 +47,7 @@ import { MembersApi, type MemberChange } from './members-api';
   styleUrl: './members.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
-export class Members implements OnInit {
+export class Members {
   private readonly api = inject(MembersApi);
   private readonly dialog = inject(MatDialog);
   private readonly notifier = inject(Notifier);
@@ -59,10 +59,12 @@ export class Members implements OnInit {
   protected readonly roleLabels = ROLE_LABELS;
   protected readonly columns = ['name', 'email', 'role', 'status', 'lastSignInAt', 'actions'];
   protected readonly selfId = computed(() => this.session.user()?.id ?? null);
-  protected readonly loading = signal(true);
+  /** The members as read, then as changed here (invited, role or status changed). */
+  private readonly read = apiResource({ load: () => this.api.list() });
+  protected readonly loading = this.read.loading;
   /** Ids of members with a change on its way, whose controls wait for the answer. */
   protected readonly busy = signal<ReadonlySet<string>>(new Set());
-  protected readonly members = signal<readonly Member[]>([]);
+  protected readonly members = computed<readonly Member[]>(() => this.read.value() ?? []);
   protected readonly filter = signal('');
   protected readonly dataSource = new MatTableDataSource<Member>([]);
 
@@ -77,26 +79,13 @@ export class Members implements OnInit {
     effect(() => (this.dataSource.filter = this.filter().trim().toLowerCase()));
   }
 
-  ngOnInit(): void {
-    this.api.list().subscribe({
-      next: (members) => {
-        this.members.set(members);
-        this.loading.set(false);
-      },
-      error: (error: unknown) => {
-        this.loading.set(false);
-        this.notifier.errorNotShownYet(error);
-      },
-    });
-  }
-
   protected invite(): void {
     this.dialog
       .open(InviteDialog, { width: 'min(32rem, calc(100vw - 2rem))', autoFocus: 'first-tabbable' })
       .afterClosed()
       .subscribe((member?: Member) => {
         if (!member) return;
-        this.members.update((list) => [...list, member]);
+        this.read.set([...this.members(), member]);
         this.notifier.info(`Invitation sent to ${member.email}.`);
       });
   }
@@ -187,7 +176,7 @@ export class Members implements OnInit {
 
   private replace(updated: Member): void {
     this.track(updated.id, false);
-    this.members.update((list) => list.map((m) => (m.id === updated.id ? updated : m)));
+    this.read.set(this.members().map((m) => (m.id === updated.id ? updated : m)));
   }
 
   private track(id: string, busy: boolean): void {

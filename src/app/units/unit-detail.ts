@@ -1,10 +1,11 @@
-import { ChangeDetectionStrategy, Component, effect, inject, input, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { RouterLink } from '@angular/router';
 import { MarkdownComponent } from 'ngx-markdown';
 import { UNIT_STATUS_LABELS, type Unit } from '../../../shared/schemas/units';
+import { apiResource } from '../http/resource';
 import { clockTime, dayLabel } from '../lessons/clock';
 import { saveBlob } from '../files/transfer';
 import { yearLabel } from './labels';
@@ -144,24 +145,16 @@ export class UnitDetail {
   readonly id = input.required<string>();
 
   protected readonly statusLabels = UNIT_STATUS_LABELS;
-  protected readonly unit = signal<Unit | null>(null);
-  protected readonly error = signal<string | null>(null);
+  private readonly read = apiResource({
+    params: () => this.id(),
+    load: (id: string) => this.api.get(id),
+  });
+  protected readonly unit = computed(() => this.read.value() ?? null);
+  protected readonly error = this.read.error;
   /** The printable being made, and how far its download is (null: size unknown). */
   protected readonly download = signal<{ file: UnitPrintable; fraction: number | null } | null>(
     null,
   );
-
-  constructor() {
-    effect(() => {
-      const id = this.id();
-      this.unit.set(null);
-      this.error.set(null);
-      this.api.get(id).subscribe({
-        next: (unit) => this.unit.set(unit),
-        error: (e: unknown) => this.error.set(e instanceof Error ? e.message : 'Not loaded.'),
-      });
-    });
-  }
 
   /** Downloads a printable and saves it under the name the server gave it. */
   protected print(file: UnitPrintable): void {

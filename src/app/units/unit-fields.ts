@@ -1,6 +1,6 @@
-import { ChangeDetectionStrategy, Component, input } from '@angular/core';
+import { ChangeDetectionStrategy, Component, inject, input } from '@angular/core';
 import { toObservable, toSignal } from '@angular/core/rxjs-interop';
-import { FormControl, ReactiveFormsModule } from '@angular/forms';
+import { ControlContainer, FormControl, ReactiveFormsModule } from '@angular/forms';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
@@ -46,7 +46,10 @@ export function unitFieldControls(): UnitFieldControls {
   };
 }
 
-/** The unit's main fields inside the page's own form (a grid or a stack, as the page lays out). */
+/**
+ * The unit's main fields inside the page's own form, whose FormGroup holds `unitFieldControls()`
+ * under their names (laid out as the page's grid or stack).
+ */
 @Component({
   selector: 'app-unit-fields',
   imports: [
@@ -61,12 +64,12 @@ export function unitFieldControls(): UnitFieldControls {
     @let _ = changed();
     <mat-form-field class="wide">
       <mat-label>Title</mat-label>
-      <input matInput [formControl]="fields().title" required />
+      <input matInput formControlName="title" required />
       <mat-error>{{ fields().title.errors | fieldError }}</mat-error>
     </mat-form-field>
     <mat-form-field>
       <mat-label>Year level</mat-label>
-      <mat-select [formControl]="fields().yearLevel" required>
+      <mat-select formControlName="yearLevel" required>
         @for (level of yearLevels; track level) {
           <mat-option [value]="level">{{ year(level) }}</mat-option>
         }
@@ -75,12 +78,12 @@ export function unitFieldControls(): UnitFieldControls {
     </mat-form-field>
     <mat-form-field>
       <mat-label>Learning area</mat-label>
-      <input matInput [formControl]="fields().learningArea" />
+      <input matInput formControlName="learningArea" />
       <mat-error>{{ fields().learningArea.errors | fieldError }}</mat-error>
     </mat-form-field>
     <mat-form-field>
       <mat-label>Term</mat-label>
-      <mat-select [formControl]="fields().term">
+      <mat-select formControlName="term">
         <mat-option [value]="null">No term</mat-option>
         @for (t of terms; track t) {
           <mat-option [value]="t">Term {{ t }}</mat-option>
@@ -97,6 +100,10 @@ export function unitFieldControls(): UnitFieldControls {
       grid-column: 1 / -1;
     }
   `,
+  // The fields join the page's own form (its FormGroupDirective), as if written in its template.
+  viewProviders: [
+    { provide: ControlContainer, useFactory: () => inject(ControlContainer, { skipSelf: true }) },
+  ],
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 export class UnitFields {
