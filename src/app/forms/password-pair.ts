@@ -1,6 +1,12 @@
 import { ChangeDetectionStrategy, Component, input } from '@angular/core';
 import { toObservable, toSignal } from '@angular/core/rxjs-interop';
-import { FormControl, ReactiveFormsModule, type ValidatorFn } from '@angular/forms';
+import {
+  FormControl,
+  ReactiveFormsModule,
+  type AbstractControl,
+  type ValidationErrors,
+  type ValidatorFn,
+} from '@angular/forms';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { PASSWORD_MIN, newPasswordSchema } from '../../../shared/schemas/auth';
@@ -70,8 +76,6 @@ export function passwordPair(words: PasswordWords): PasswordPairControls {
   selector: 'app-password-pair',
   imports: [ReactiveFormsModule, MatFormFieldModule, MatInputModule, FieldErrorPipe],
   template: `
-    <!-- Reading the controls' events re-renders this OnPush view when the page's form submits. -->
-    @let _ = changed();
     <mat-form-field appearance="outline">
       <mat-label>{{ pair().words.label }}</mat-label>
       <input
@@ -82,7 +86,7 @@ export function passwordPair(words: PasswordWords): PasswordPairControls {
         required
       />
       <mat-hint>At least {{ minLength }} characters. A short sentence works well.</mat-hint>
-      <mat-error>{{ pair().password.errors | fieldError }}</mat-error>
+      <mat-error>{{ errorsOf(pair().password) | fieldError }}</mat-error>
     </mat-form-field>
     <mat-form-field appearance="outline">
       <mat-label>{{ pair().words.againLabel }}</mat-label>
@@ -93,7 +97,7 @@ export function passwordPair(words: PasswordWords): PasswordPairControls {
         autocomplete="new-password"
         required
       />
-      <mat-error>{{ pair().confirm.errors | fieldError }}</mat-error>
+      <mat-error>{{ errorsOf(pair().confirm) | fieldError }}</mat-error>
     </mat-form-field>
   `,
   styles: `
@@ -107,7 +111,16 @@ export class PasswordPair {
   readonly pair = input.required<PasswordPairControls>();
   protected readonly minLength = PASSWORD_MIN;
   /** The last touched/status/value event of either field (e.g. the page marking all touched). */
-  protected readonly changed = toSignal(
+  private readonly changed = toSignal(
     toObservable(this.pair).pipe(switchMap((p) => merge(p.password.events, p.confirm.events))),
   );
+
+  /**
+   * A field's errors; reading `changed` re-renders this OnPush view when the page's form changes
+   * the fields (e.g. marks them all touched on submit).
+   */
+  protected errorsOf(control: AbstractControl): ValidationErrors | null {
+    this.changed();
+    return control.errors;
+  }
 }

@@ -18,7 +18,7 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { RouterLink } from '@angular/router';
 import { of } from 'rxjs';
 import { catchError } from 'rxjs/operators';
-import type { PrepPlan, PrepSuggestion, PrepTask } from '../../../shared/prep/index';
+import type { PrepSuggestion, PrepTask } from '../../../shared/prep/index';
 import type { Part } from '../../../shared/schemas/kits';
 import { lessonSchema, type Lesson } from '../../../shared/schemas/lessons';
 import { AppError } from '../errors/app-error';

@@ -1,6 +1,12 @@
 import { ChangeDetectionStrategy, Component, inject, input } from '@angular/core';
 import { toObservable, toSignal } from '@angular/core/rxjs-interop';
-import { ControlContainer, FormControl, ReactiveFormsModule } from '@angular/forms';
+import {
+  ControlContainer,
+  FormControl,
+  ReactiveFormsModule,
+  type AbstractControl,
+  type ValidationErrors,
+} from '@angular/forms';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
@@ -60,12 +66,10 @@ export function unitFieldControls(): UnitFieldControls {
     FieldErrorPipe,
   ],
   template: `
-    <!-- Reading the controls' events re-renders this OnPush view when the page's form submits. -->
-    @let _ = changed();
     <mat-form-field class="wide">
       <mat-label>Title</mat-label>
       <input matInput formControlName="title" required />
-      <mat-error>{{ fields().title.errors | fieldError }}</mat-error>
+      <mat-error>{{ errorsOf(fields().title) | fieldError }}</mat-error>
     </mat-form-field>
     <mat-form-field>
       <mat-label>Year level</mat-label>
@@ -74,12 +78,12 @@ export function unitFieldControls(): UnitFieldControls {
           <mat-option [value]="level">{{ year(level) }}</mat-option>
         }
       </mat-select>
-      <mat-error>{{ fields().yearLevel.errors | fieldError }}</mat-error>
+      <mat-error>{{ errorsOf(fields().yearLevel) | fieldError }}</mat-error>
     </mat-form-field>
     <mat-form-field>
       <mat-label>Learning area</mat-label>
       <input matInput formControlName="learningArea" />
-      <mat-error>{{ fields().learningArea.errors | fieldError }}</mat-error>
+      <mat-error>{{ errorsOf(fields().learningArea) | fieldError }}</mat-error>
     </mat-form-field>
     <mat-form-field>
       <mat-label>Term</mat-label>
@@ -89,7 +93,7 @@ export function unitFieldControls(): UnitFieldControls {
           <mat-option [value]="t">Term {{ t }}</mat-option>
         }
       </mat-select>
-      <mat-error>{{ fields().term.errors | fieldError }}</mat-error>
+      <mat-error>{{ errorsOf(fields().term) | fieldError }}</mat-error>
     </mat-form-field>
   `,
   styles: `
@@ -112,13 +116,22 @@ export class UnitFields {
   protected readonly yearLevels = YEAR_LEVELS;
   protected readonly terms = TERMS;
   /** The last event of any field (e.g. the page marking all touched on submit). */
-  protected readonly changed = toSignal(
+  private readonly changed = toSignal(
     toObservable(this.fields).pipe(
       switchMap((f) =>
         merge(f.title.events, f.yearLevel.events, f.learningArea.events, f.term.events),
       ),
     ),
   );
+
+  /**
+   * A field's errors; reading `changed` re-renders this OnPush view when the page's form changes
+   * the fields (e.g. marks them all touched on submit).
+   */
+  protected errorsOf(control: AbstractControl): ValidationErrors | null {
+    this.changed();
+    return control.errors;
+  }
 
   protected year(level: number): string {
     return yearLabel(level);
