@@ -1,21 +1,19 @@
 import { HttpClient } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
 import { map, type Observable } from 'rxjs';
-import * as z from 'zod';
+import type * as z from 'zod';
 import { kitTypeResponseSchema, type Part } from '../../../shared/schemas/kits';
 import { lessonSchema, type Lesson, type LessonUpdate } from '../../../shared/schemas/lessons';
-import { prepPlanSchema } from '../../../shared/prep/plan-schema';
+import { lessonPrepSchema } from '../../../shared/prep/plan-schema';
 import { downloadWithProgress, type DownloadEvent } from '../files/transfer';
 import { callerShowsErrors } from '../errors/error-context';
 import { parseWith } from '../errors/parse';
 
 /**
- * The prep answer: the plan and the names of its parts (`partNames`, by part code). Optional here
- * until every server sends it; a code without a name is shown as the code.
+ * The prep answer (shared `lessonPrepSchema`: the plan and its parts' names). `partNames` is read
+ * as optional so a plan without it still shows, its codes standing in for names.
  */
-const prepAnswerSchema = prepPlanSchema.extend({
-  partNames: z.record(z.string(), z.string()).optional(),
-});
+const prepAnswerSchema = lessonPrepSchema.partial({ partNames: true });
 export type PrepAnswer = z.output<typeof prepAnswerSchema>;
 
 /** The printables a lesson offers (`/api/lessons/:id/pack.pdf`, `/labels.pdf`, `/prep.ics`). */
