@@ -4,9 +4,11 @@
  */
 import type { Server } from 'node:http';
 import { loadConfig, type Config } from './config.js';
-import { openDatabase, runMigrations, type Database } from './db/client.js';
+import { openDatabase, printableDatabaseUrl, runMigrations, type Database } from './db/client.js';
 import { createApp } from './app.js';
-import { createMailTransport, startOutboxWorker, type OutboxWorker } from './mail/outbox.js';
+import { createMailTransport } from './mail/outbox.js';
+import { startJobs, type Jobs } from './jobs/index.js';
+import { jobDefinitions, MAIL_JOB } from './jobs/registry.js';
 import type { DevMail } from '../shared/schemas/members.js';
 import { closePdfPool } from './pdf/pool.js';
 import { createSessionStore } from './auth/session.js';
@@ -15,14 +17,19 @@ import { drainable } from './drain.js';
 export interface Running {
   server: Server;
   database: Database;
-  outbox: OutboxWorker;
+  /** The PostgreSQL job queue (outbox delivery and every scheduled job). */
+  jobs: Jobs;
   /** Drains the server (every request already sent is answered), stops the workers, closes the pool. */
   close: () => Promise<void>;
 }
 
 export async function serve(
   config: Config,
-  extra: { devMail?: () => DevMail[] } = {},
+  extra: {
+    devMail?: () => DevMail[];
+    /** Seconds between the job workers' polls (pg-boss's default 2). */
+    jobPollSeconds?: number;
+  } = {},
 ): Promise<Running> {
   if (!config.databaseUrl) throw new Error('DATABASE_URL is not set.');
   if (!config.smtpUrl || config.smtpUrl === 'fake') {
@@ -30,18 +37,24 @@ export async function serve(
   }
   const database = openDatabase(config.databaseUrl, 20);
   await runMigrations(database.db);
-  const outbox = startOutboxWorker(
-    database.db,
-    createMailTransport(config.smtpUrl),
-    config.mailFrom,
-  );
+  const transport = createMailTransport(config.smtpUrl);
+  const jobs = await startJobs({
+    connectionString: config.databaseUrl,
+    definitions: jobDefinitions({ db: database.db, transport, mailFrom: config.mailFrom }),
+    pollingIntervalSeconds: extra.jobPollSeconds,
+  });
+  // Any instance may deliver a message; the claim in deliverDue makes sure only one does.
+  const kickMail = () =>
+    void jobs
+      .send(MAIL_JOB)
+      .catch((err: Error) => console.error('Queueing mail failed:', err.message));
   const sessionStore = createSessionStore(database.pool, true);
   const app = createApp(
     {
       db: database.db,
       pool: database.pool,
       config,
-      kickMail: () => void outbox.kick(),
+      kickMail,
       devMail: extra.devMail,
     },
     { sessionStore },
@@ -51,18 +64,19 @@ export async function serve(
     s.once('error', reject);
   });
   const drain = drainable(server);
-  void outbox.kick();
+  kickMail();
   let closing: Promise<void> | null = null;
   return {
     server,
     database,
-    outbox,
+    jobs,
     close: () =>
       (closing ??= (async () => {
         // In order: no new connections, every request already sent answered; then the workers
         // that use the pool; then the session store (its prune timer) and last the pool itself.
         await drain({ idleGraceMs: 1000, hardLimitMs: 10_000 });
-        await Promise.all([outbox.stop(), closePdfPool()]);
+        await Promise.all([jobs.stop(), closePdfPool()]);
+        transport.close();
         sessionStore.close();
         await database.pool.end();
       })()),
@@ -92,9 +106,9 @@ export function stopOnSignals(
 
 const isEntry = import.meta.url === `file://${process.argv[1]}`;
 if (isEntry) {
-  const running = await serve(loadConfig());
-  console.log(
-    `Trayplan listening on http://${running.server.address() && loadConfig().host}:${loadConfig().port}`,
-  );
+  const config = loadConfig();
+  const running = await serve(config);
+  console.log(`Trayplan listening on http://${config.host}:${config.port}`);
+  console.log(`Database: ${printableDatabaseUrl(config.databaseUrl)}`);
   stopOnSignals(running);
 }

@@ -15,7 +15,7 @@ import {
   startCluster,
   type RunningCluster,
 } from './db/cluster.js';
-import { openDatabase, runMigrations } from './db/client.js';
+import { openDatabase, printableDatabaseUrl, runMigrations } from './db/client.js';
 import { seedDemo, DEMO_ACCOUNTS, DEMO_PASSWORD } from './seed/index.js';
 import { startFakeSmtp, type FakeSmtp } from './mail/fake-smtp.js';
 import { serve, stopOnSignals } from './main.js';
@@ -100,6 +100,8 @@ async function main(): Promise<void> {
     });
     const url = dev ? 'http://127.0.0.1:4200 (API on ' + config.appUrl + ')' : config.appUrl;
     console.log(`\nTrayplan is running at ${url}`);
+    // Another instance joins this one with the same DATABASE_URL, SMTP_URL and SESSION_SECRET.
+    console.log(`Database: ${printableDatabaseUrl(databaseUrl)}`);
     if (fake)
       console.log(
         `E-mail goes to the local fake SMTP server (${fake.url}); admins read it under "Mail outbox".`,

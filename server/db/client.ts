@@ -13,6 +13,17 @@ export interface Database {
   db: Db;
 }
 
+/** The database address to print: user, host, port and database, never the password. */
+export function printableDatabaseUrl(url: string): string {
+  try {
+    const u = new URL(url);
+    u.password = '';
+    return u.toString();
+  } catch {
+    return '(an address that is not a URL)';
+  }
+}
+
 /** Opens a pool and a Drizzle handle with snake_case columns. */
 export function openDatabase(url: string, max = 10): Database {
   // A connection attempt gives up after 5 s so requests answer 503 during an outage instead of

@@ -3,7 +3,7 @@
  * delivered afterwards by this worker, retried with capped exponential backoff while SMTP is down.
  */
 import nodemailer, { type Transporter } from 'nodemailer';
-import { and, asc, eq, lte, sql } from 'drizzle-orm';
+import { and, eq, sql } from 'drizzle-orm';
 import type { Db, Tx } from '../db/client.js';
 import { outbox } from '../db/schema/outbox.js';
 
@@ -52,6 +52,74 @@ export function createMailTransport(smtpUrl: string): Transporter {
   });
 }
 
+/** A claim older than this was lost with its worker (a crash mid-send): the message goes again. */
+export const LOST_CLAIM_MINUTES = 5;
+
+type OutboxRow = typeof outbox.$inferSelect;
+
+/**
+ * Claims the oldest message that is due, in one UPDATE: of any number of workers on any number
+ * of instances exactly one gets it. SKIP LOCKED lets the others claim the next one meanwhile.
+ */
+export async function claimNext(db: Db): Promise<OutboxRow | undefined> {
+  const result = await db.execute<Record<string, unknown>>(sql`
+    UPDATE outbox SET status = 'sending', claimed_at = now(), attempts = attempts + 1
+    WHERE id = (
+      SELECT id FROM outbox
+      WHERE (status = 'pending' AND next_attempt_at <= now())
+         OR (status = 'sending'
+             AND claimed_at < now() - make_interval(mins => ${LOST_CLAIM_MINUTES}))
+      ORDER BY created_at
+      LIMIT 1
+      FOR UPDATE SKIP LOCKED
+    )
+    RETURNING id`);
+  const id = result.rows[0]?.id as string | undefined;
+  if (!id) return undefined;
+  const [row] = await db.select().from(outbox).where(eq(outbox.id, id));
+  return row;
+}
+
+/** Sends every message that is due, one claim at a time; resolves with how many went out. */
+export async function deliverDue(
+  db: Db,
+  transport: Transporter,
+  from: string,
+  shouldStop: () => boolean = () => false,
+): Promise<number> {
+  let sent = 0;
+  for (;;) {
+    if (shouldStop()) return sent;
+    const row = await claimNext(db);
+    if (!row) return sent;
+    try {
+      await transport.sendMail({
+        from,
+        to: row.toAddress,
+        subject: row.subject,
+        text: row.textBody,
+        ...(row.htmlBody ? { html: row.htmlBody } : {}),
+      });
+      await db
+        .update(outbox)
+        .set({ status: 'sent', sentAt: sql`now()`, lastError: null })
+        .where(and(eq(outbox.id, row.id), eq(outbox.status, 'sending')));
+      sent++;
+    } catch (err) {
+      await db
+        .update(outbox)
+        .set({
+          status: 'pending',
+          claimedAt: null,
+          lastError: (err as Error).message.slice(0, 500),
+          nextAttemptAt: sql`now() + make_interval(secs => ${backoffSeconds(row.attempts)})`,
+        })
+        .where(eq(outbox.id, row.id));
+    }
+  }
+}
+
+/** Runs deliverDue in this process on a timer and on kick() (tests and single-process runs). */
 export function startOutboxWorker(
   db: Db,
   transport: Transporter,
@@ -62,54 +130,6 @@ export function startOutboxWorker(
   let again = false;
   let stopped = false;
 
-  async function pass(): Promise<number> {
-    let sent = 0;
-    for (;;) {
-      if (stopped) return sent;
-      const done = await db.transaction(async (tx) => {
-        const [row] = await tx
-          .select()
-          .from(outbox)
-          .where(and(eq(outbox.status, 'pending'), lte(outbox.nextAttemptAt, sql`now()`)))
-          .orderBy(asc(outbox.createdAt))
-          .limit(1)
-          .for('update', { skipLocked: true });
-        if (!row) return false;
-        try {
-          await transport.sendMail({
-            from,
-            to: row.toAddress,
-            subject: row.subject,
-            text: row.textBody,
-            ...(row.htmlBody ? { html: row.htmlBody } : {}),
-          });
-          await tx
-            .update(outbox)
-            .set({
-              status: 'sent',
-              sentAt: sql`now()`,
-              attempts: row.attempts + 1,
-              lastError: null,
-            })
-            .where(eq(outbox.id, row.id));
-          sent++;
-        } catch (err) {
-          const attempts = row.attempts + 1;
-          await tx
-            .update(outbox)
-            .set({
-              attempts,
-              lastError: (err as Error).message.slice(0, 500),
-              nextAttemptAt: sql`now() + make_interval(secs => ${backoffSeconds(attempts)})`,
-            })
-            .where(eq(outbox.id, row.id));
-        }
-        return true;
-      });
-      if (!done) return sent;
-    }
-  }
-
   function kick(): Promise<void> {
     if (running) {
       again = true;
@@ -119,7 +139,7 @@ export function startOutboxWorker(
       do {
         again = false;
         try {
-          await pass();
+          await deliverDue(db, transport, from, () => stopped);
         } catch (err) {
           if (!stopped) console.error('Outbox pass failed:', (err as Error).message);
         }

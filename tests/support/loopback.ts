@@ -41,6 +41,14 @@ export class LoopbackClient {
     readonly localAddress: string,
   ) {}
 
+  /** The same browser (cookies, CSRF token) talking to another instance. */
+  on(port: number): LoopbackClient {
+    const other = new LoopbackClient(port, this.localAddress);
+    other.cookies = this.cookies;
+    other.csrf = this.csrf;
+    return other;
+  }
+
   request(method: string, path: string, body?: unknown): Promise<LoopbackResponse> {
     const data = body === undefined ? undefined : JSON.stringify(body);
     const headers: Record<string, string> = { accept: 'application/json' };
