@@ -57,7 +57,7 @@ function api(ctx: AppContext, options: AppOptions): express.Router {
     }),
   );
   router.use(loadActor(ctx.db));
-  router.use(csrfGuard);
+  router.use(csrfGuard(ctx.config.sessionSecret));
   router.use((_req, res, next) => {
     res.setHeader('Cache-Control', 'no-store');
     next();
@@ -111,7 +111,9 @@ function client(dir: string): express.Router {
 export function createApp(ctx: AppContext, options: AppOptions = {}): Express {
   const app = express();
   app.disable('x-powered-by');
-  if (ctx.config.behindHttps) app.set('trust proxy', 1);
+  // Exactly the configured number of proxies is trusted for the client's address, so a forged
+  // X-Forwarded-For cannot dodge the per-address sign-in limit (Express "trust proxy" as a count).
+  if (ctx.config.trustProxyHops > 0) app.set('trust proxy', ctx.config.trustProxyHops);
   app.use((_req, res, next) => {
     res.locals.cspNonce = randomBytes(16).toString('base64');
     next();

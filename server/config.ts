@@ -13,13 +13,21 @@ export interface Config {
   sessionSecret: string;
   /** Minutes without a request before a session ends. */
   sessionIdleMinutes: number;
-  /** Whether the app runs behind an HTTPS proxy (cookies get Secure, proxy headers trusted). */
+  /** Whether the app runs behind an HTTPS proxy (cookies get Secure, HSTS). */
   behindHttps: boolean;
+  /** Proxies in front of the app whose X-Forwarded-For is trusted (0: none, the peer is the client). */
+  trustProxyHops: number;
 }
 
 function int(value: string | undefined, fallback: number): number {
   const n = value === undefined || value === '' ? NaN : Number(value);
   return Number.isInteger(n) && n > 0 ? n : fallback;
+}
+
+/** A whole number of proxy hops, 0 allowed; anything else falls back. */
+function hops(value: string | undefined, fallback: number): number {
+  const n = value === undefined || value === '' ? NaN : Number(value);
+  return Number.isInteger(n) && n >= 0 && n <= 10 ? n : fallback;
 }
 
 /** Reads the configuration; `overrides` lets tests set values without touching process.env. */
@@ -43,6 +51,7 @@ export function loadConfig(overrides: Partial<Config> = {}): Config {
     sessionSecret: secret,
     sessionIdleMinutes: int(env.SESSION_IDLE_MINUTES, 120),
     behindHttps: env.BEHIND_HTTPS === 'true',
+    trustProxyHops: hops(env.TRUST_PROXY_HOPS, env.BEHIND_HTTPS === 'true' ? 1 : 0),
     ...overrides,
   };
 }

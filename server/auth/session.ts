@@ -11,7 +11,6 @@ import type { Actor } from './policy.js';
 declare module 'express-session' {
   interface SessionData {
     userId?: string;
-    csrf?: string;
   }
 }
 

@@ -36,7 +36,7 @@ const resetInvalid = () =>
 export async function signInAs(ctx: AppContext, req: Request, res: Response, userId: string) {
   await regenerate(req);
   req.session.userId = userId;
-  issueCsrf(req, res, ctx.config.behindHttps);
+  issueCsrf(req, res, ctx.config.sessionSecret, ctx.config.behindHttps);
   await saveSession(req);
   await ctx.db
     .update(users)
@@ -49,7 +49,7 @@ export function authRouter(ctx: AppContext): Router {
   const router = Router();
 
   router.get('/csrf', (req, res) => {
-    issueCsrf(req, res, ctx.config.behindHttps);
+    issueCsrf(req, res, ctx.config.sessionSecret, ctx.config.behindHttps);
     res.status(204).end();
   });
 
@@ -60,9 +60,11 @@ export function authRouter(ctx: AppContext): Router {
     if (attempt.delayMs) await sleep(attempt.delayMs);
     const [user] = await ctx.db.select().from(users).where(eq(users.email, body.email));
     // An unknown address costs the same hash as a known one, and answers the same 401.
-    const ok = user
-      ? (await verifyPassword(user.passwordHash, body.password)) && user.status === 'active'
-      : (await verifyPassword(await dummyPasswordHash(), body.password), false);
+    // An invited person without a password yet costs the same hash too, so timing cannot tell
+    // "invited, not joined" from "has an account".
+    const hash = user?.passwordHash ?? (await dummyPasswordHash());
+    const matches = await verifyPassword(hash, body.password);
+    const ok = !!user && !!user.passwordHash && matches && user.status === 'active';
     if (!user || !ok) {
       if (user && user.status === 'active' && (await attempt.shouldWarn())) {
         await enqueueMail(ctx.db, signInWarningMail(ctx.config.appUrl, user.email, user.name));
