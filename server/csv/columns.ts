@@ -50,7 +50,8 @@ export const NO = new Set(['no', 'false', '0', '']);
  * that already starts with apostrophes before such a character gets one more, so every value
  * survives the round trip exactly.
  */
-const FORMULA_START = /^'*[=+\-@]/;
+// OWASP CSV Injection: =, +, -, @, tab (0x09) and carriage return (0x0D) can start a formula.
+const FORMULA_START = /^'*[=+\-@\t\r]/;
 
 export function guardFormula(text: string): string {
   return FORMULA_START.test(text) ? `'${text}` : text;

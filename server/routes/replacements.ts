@@ -3,7 +3,6 @@
  * (server/kits/replacements.ts) as JSON or CSV.
  */
 import { Router } from 'express';
-import { stringify } from 'csv-stringify/sync';
 import type { AppContext } from '../context.js';
 import { parseParams } from '../http.js';
 import { requireActor } from '../auth/session.js';
@@ -11,6 +10,7 @@ import { authorize } from '../auth/policy.js';
 import { idParamsSchema } from '../../shared/schemas/common.js';
 import { replacementList } from '../kits/replacements.js';
 import { sendDownload, slug } from '../downloads.js';
+import { writeCsv } from '../csv/index.js';
 
 export function replacementsRouter(ctx: AppContext): Router {
   const router = Router();
@@ -26,14 +26,14 @@ export function replacementsRouter(ctx: AppContext): Router {
     authorize(actor, 'kits.read');
     const { id } = parseParams(idParamsSchema, req);
     const { kit, lines } = await replacementList(ctx.db, actor.schoolId, id);
-    const csv = stringify(
+    const csv = writeCsv(
+      ['code', 'name', 'missing', 'tubs'],
       lines.map((l) => [
         l.partCode,
         l.name,
         l.missing,
         l.tubs.map((t) => `${t.label} (${t.count})`).join('; '),
       ]),
-      { header: true, columns: ['code', 'name', 'missing', 'tubs'], record_delimiter: '\r\n' },
     );
     sendDownload(res, 'text/csv; charset=utf-8', `${slug(kit.name, 'kit')}-replacements.csv`, csv);
   });
