@@ -22,6 +22,7 @@ import { kitTypesRouter } from './routes/kit-types.js';
 import { tubsRouter } from './routes/tubs.js';
 import { outcomesRouter } from './routes/outcomes.js';
 import { unitsRouter } from './routes/units.js';
+import { reuseRouter } from './routes/reuse.js';
 import { lessonsRouter } from './routes/lessons.js';
 import { activitiesRouter } from './routes/activities.js';
 import { agendaRouter, conflictsRouter } from './routes/agenda.js';
@@ -75,6 +76,7 @@ function api(ctx: AppContext, options: AppOptions): express.Router {
   router.use('/tubs', tubsRouter(ctx));
   router.use('/outcomes', outcomesRouter(ctx));
   router.use('/units', unitsRouter(ctx));
+  router.use('/units', reuseRouter(ctx));
   router.use('/agenda', agendaRouter(ctx));
   router.use('/relief', reliefRouter(ctx));
   router.use('/conflicts', conflictsRouter(ctx));

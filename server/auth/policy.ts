@@ -32,6 +32,8 @@ const ACTIONS = {
   'units.create': ['teacher'],
   'units.read': ['lead', 'teacher'],
   'units.review': ['lead'],
+  /** Copying a unit the actor can read into their own units (API.md, "Reuse"); relief never. */
+  'units.copy': ['admin', 'lead', 'teacher'],
 } as const satisfies Record<string, readonly Role[]>;
 
 export type Action = keyof typeof ACTIONS;

@@ -62,3 +62,28 @@ export function signInWarningMail(appUrl: string, to: string, name: string): Out
     ].join('\n'),
   };
 }
+
+/** To a teacher just added as a co-author of a unit. */
+export function coauthorMail(
+  appUrl: string,
+  to: string,
+  name: string,
+  unitTitle: string,
+  addedBy: string,
+  unitId: string,
+): OutgoingMail {
+  const link = `${appUrl}/units/${unitId}`;
+  return {
+    to,
+    subject: `You are now a co-author of ${unitTitle}`,
+    text: [
+      `Hello ${name || 'there'},`,
+      ``,
+      `${addedBy} has added you as a co-author of the unit "${unitTitle}" on Trayplan.`,
+      `You can now edit it and its lessons; it is listed under My units. Open it here:`,
+      link,
+      ``,
+      `If you do not know why, ask ${addedBy} or your school's Trayplan admin.`,
+    ].join('\n'),
+  };
+}

@@ -14,6 +14,7 @@ import { notFound } from '../http.js';
 import { canEditUnit, canReadUnit, type Actor, type UnitFacts } from '../auth/policy.js';
 import type { Unit, UnitListQuery, UnitSummary } from '../../shared/schemas/units.js';
 import { likePattern, toLocal } from './format.js';
+import { basedOnOf } from '../reuse/based-on.js';
 
 function person(u: { id: string; name: string; email: string }) {
   return { id: u.id, name: u.name || u.email, email: u.email };
@@ -93,6 +94,7 @@ export async function unitDetail(tx: Tx, actor: Actor, unitId: string): Promise<
       className: l.className,
     })),
     isOwner: canEditUnit(actor, facts) && u.ownerId === actor.id,
+    basedOn: await basedOnOf(tx, actor, unitId),
   };
 }
 

@@ -18,6 +18,8 @@ import { safeFilename } from '../planning/upload.js';
 import { attachment } from '../downloads.js';
 import { requireFile, singleFileUpload, sniffUpload } from '../uploads/index.js';
 import { deleteVersion, stale } from '../db/versions.js';
+import { lockedLesson, recordActivityChange } from '../reuse/record.js';
+import { loadLessonSnapshot } from '../reuse/snapshot.js';
 
 /** More than this many files on one activity is a mistake, not build instructions. */
 const MAX_ATTACHMENTS = 20;
@@ -43,8 +45,11 @@ export function activitiesRouter(ctx: AppContext): Router {
     const actor = requireActor(req);
     const { id } = parseParams(idParamsSchema, req);
     await ctx.db.transaction(async (tx) => {
-      await attachmentAccess(tx, actor, id, 'edit');
+      const { activityId, lesson } = await attachmentAccess(tx, actor, id, 'edit');
+      const before = await lockedLesson(tx, lesson.id);
       await tx.delete(attachments).where(eq(attachments.id, id));
+      const after = await loadLessonSnapshot(tx, lesson.id);
+      await recordActivityChange(tx, actor, lesson.unitId, activityId, before, after);
     });
     res.status(204).end();
   });
@@ -61,7 +66,12 @@ export function activitiesRouter(ctx: AppContext): Router {
     const { id } = parseParams(idParamsSchema, req);
     const activity = await ctx.db.transaction(async (tx) => {
       const lesson = await activityAccess(tx, actor, id, 'edit');
-      return updateActivity(tx, lesson, id, req.body);
+      // The lesson is locked first, as updateActivity locks it, so two edits never deadlock.
+      const before = await lockedLesson(tx, lesson.id);
+      const activity = await updateActivity(tx, lesson, id, req.body);
+      const after = await loadLessonSnapshot(tx, lesson.id);
+      await recordActivityChange(tx, actor, lesson.unitId, id, before, after);
+      return activity;
     });
     res.json(activity);
   });
@@ -71,7 +81,8 @@ export function activitiesRouter(ctx: AppContext): Router {
     const { id } = parseParams(idParamsSchema, req);
     const version = deleteVersion(req.query);
     await ctx.db.transaction(async (tx) => {
-      await activityAccess(tx, actor, id, 'edit');
+      const lesson = await activityAccess(tx, actor, id, 'edit');
+      const before = await lockedLesson(tx, lesson.id);
       const [row] = await tx
         .select({ version: activities.version })
         .from(activities)
@@ -80,6 +91,7 @@ export function activitiesRouter(ctx: AppContext): Router {
       if (version !== undefined && row?.version !== version)
         throw stale('activity', await activityDetail(tx, id));
       await tx.delete(activities).where(eq(activities.id, id));
+      await recordActivityChange(tx, actor, lesson.unitId, id, before, null);
     });
     res.status(204).end();
   });
@@ -100,7 +112,8 @@ export function activitiesRouter(ctx: AppContext): Router {
       const contentType = await sniffUpload(file.buffer, ATTACHMENT_TYPES);
       const filename = safeFilename(file.originalname, contentType);
       const saved = await ctx.db.transaction(async (tx) => {
-        await activityAccess(tx, actor, id, 'edit');
+        const lesson = await activityAccess(tx, actor, id, 'edit');
+        const before = await lockedLesson(tx, lesson.id);
         // Counted under the activity's row lock so two uploads cannot both pass the limit.
         await tx
           .select({ id: activities.id })
@@ -127,6 +140,8 @@ export function activitiesRouter(ctx: AppContext): Router {
             size: attachments.size,
             contentType: attachments.contentType,
           });
+        const after = await loadLessonSnapshot(tx, lesson.id);
+        await recordActivityChange(tx, actor, lesson.unitId, id, before, after);
         return row!;
       });
       res.status(201).json(saved);

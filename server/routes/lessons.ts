@@ -21,6 +21,14 @@ import { prepRouter } from './prep.js';
 import { lessonPrintablesRouter } from './printables.js';
 import { lessonShareLinksRouter } from './share-links.js';
 import { deleteVersion, sameMembers, stale, staleOrder, writeOrder } from '../db/versions.js';
+import {
+  lockedLesson,
+  recordActivitiesReordered,
+  recordActivityChange,
+  recordLessonEdit,
+  recordLessonRemoved,
+} from '../reuse/record.js';
+import { loadLessonSnapshot } from '../reuse/snapshot.js';
 
 export function lessonsRouter(ctx: AppContext): Router {
   const router = Router();
@@ -46,8 +54,12 @@ export function lessonsRouter(ctx: AppContext): Router {
     const actor = requireActor(req);
     const { id } = parseParams(idParamsSchema, req);
     const lesson = await ctx.db.transaction(async (tx) => {
-      await editableLesson(tx, actor, id);
-      return updateLesson(tx, actor, id, req.body);
+      const facts = await editableLesson(tx, actor, id);
+      const before = await lockedLesson(tx, id);
+      const lesson = await updateLesson(tx, actor, id, req.body);
+      if (before)
+        await recordLessonEdit(tx, actor, facts.unitId, before, await loadLessonSnapshot(tx, id));
+      return lesson;
     });
     res.json(lesson);
   });
@@ -57,7 +69,7 @@ export function lessonsRouter(ctx: AppContext): Router {
     const { id } = parseParams(idParamsSchema, req);
     const version = deleteVersion(req.query);
     await ctx.db.transaction(async (tx) => {
-      await editableLesson(tx, actor, id);
+      const facts = await editableLesson(tx, actor, id);
       const [row] = await tx
         .select({ version: lessons.version })
         .from(lessons)
@@ -65,6 +77,8 @@ export function lessonsRouter(ctx: AppContext): Router {
         .for('update');
       if (version !== undefined && row?.version !== version)
         throw stale('lesson', await lessonDetail(tx, actor, id));
+      const before = await loadLessonSnapshot(tx, id);
+      if (before) await recordLessonRemoved(tx, actor, facts.unitId, before);
       // Activities, materials, attachments and bookings go with it (foreign keys cascade).
       await tx.delete(lessons).where(eq(lessons.id, id));
     });
@@ -75,7 +89,7 @@ export function lessonsRouter(ctx: AppContext): Router {
     const actor = requireActor(req);
     const { id } = parseParams(idParamsSchema, req);
     const lesson = await ctx.db.transaction(async (tx) => {
-      await editableLesson(tx, actor, id);
+      const facts = await editableLesson(tx, actor, id);
       const body = parse(activityOrderSchema, req.body);
       // Locked until commit: no activity is appended meanwhile.
       const [row] = await tx
@@ -96,6 +110,9 @@ export function lessonsRouter(ctx: AppContext): Router {
       ) {
         throw staleOrder('lesson', 'activities', await lessonDetail(tx, actor, id));
       }
+      const before = await loadLessonSnapshot(tx, id);
+      if (before && before.activities.some((a, i) => a.id !== body.activityIds[i]))
+        await recordActivitiesReordered(tx, actor, facts.unitId, before);
       await writeOrder(tx, activities, body.activityIds);
       await tx
         .update(lessons)
@@ -111,7 +128,10 @@ export function lessonsRouter(ctx: AppContext): Router {
     const { id } = parseParams(idParamsSchema, req);
     const activity = await ctx.db.transaction(async (tx) => {
       const lesson = await editableLesson(tx, actor, id);
-      return createActivity(tx, lesson, req.body);
+      const activity = await createActivity(tx, lesson, req.body);
+      const after = await loadLessonSnapshot(tx, id);
+      await recordActivityChange(tx, actor, lesson.unitId, activity.id, null, after);
+      return activity;
     });
     res.status(201).json(activity);
   });

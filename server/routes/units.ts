@@ -5,11 +5,14 @@
  * (./printables.ts) are a sub-router of this one.
  */
 import { Router } from 'express';
-import { eq, sql } from 'drizzle-orm';
+import { and, asc, eq, inArray, sql } from 'drizzle-orm';
 import type { AppContext } from '../context.js';
-import { lessons, unitCoauthors, unitOutcomes, units } from '../db/schema/index.js';
+import { lessons, unitCoauthors, unitOutcomes, units, users } from '../db/schema/index.js';
+import type { Tx } from '../db/client.js';
+import { enqueueMail } from '../mail/outbox.js';
+import { coauthorMail } from '../mail/messages.js';
 import { forbidden, parse, parseParams } from '../http.js';
-import { authorize } from '../auth/policy.js';
+import { authorize, type Actor } from '../auth/policy.js';
 import { requireActor } from '../auth/session.js';
 import { idParamsSchema } from '../../shared/schemas/common.js';
 import {
@@ -32,6 +35,37 @@ import {
   versionedUpdate,
   writeOrder,
 } from '../db/versions.js';
+import {
+  lockedUnitState,
+  recordCreated,
+  recordLessonAdded,
+  recordLessonsReordered,
+  recordUnitEdit,
+} from '../reuse/record.js';
+
+/** Tells each teacher newly added as a co-author, through the outbox (sent after commit). */
+async function mailNewCoauthors(
+  ctx: AppContext,
+  tx: Tx,
+  actor: Actor,
+  unitId: string,
+  title: string,
+  before: readonly string[],
+  after: readonly string[],
+): Promise<void> {
+  const added = after.filter((userId) => !before.includes(userId));
+  if (added.length === 0) return;
+  const people = await tx
+    .select({ email: users.email, name: users.name })
+    .from(users)
+    .where(inArray(users.id, added));
+  for (const p of people) {
+    await enqueueMail(
+      tx,
+      coauthorMail(ctx.config.appUrl, p.email, p.name, title, actor.name || actor.email, unitId),
+    );
+  }
+}
 
 export function unitsRouter(ctx: AppContext): Router {
   const router = Router();
@@ -46,6 +80,7 @@ export function unitsRouter(ctx: AppContext): Router {
         .insert(units)
         .values({ ...body, schoolId: actor.schoolId, ownerId: actor.id })
         .returning({ id: units.id });
+      await recordCreated(tx, actor, row!.id);
       return unitDetail(tx, actor, row!.id);
     });
     res.status(201).json(unit);
@@ -70,7 +105,8 @@ export function unitsRouter(ctx: AppContext): Router {
     const { id } = parseParams(idParamsSchema, req);
     const unit = await ctx.db.transaction(async (tx) => {
       const facts = await editableUnit(tx, actor, id);
-      const raw = (req.body ?? {}) as Record<string, unknown>;
+      // Locked before anything is read, so the history compares with what this edit replaced.
+      const before = await lockedUnitState(tx, id);
       const { data, details } = check(unitUpdateSchema, req.body);
       // Only the owner changes who co-authors (a list equal to the current one is no change).
       if (
@@ -80,6 +116,7 @@ export function unitsRouter(ctx: AppContext): Router {
       ) {
         throw forbidden('Only the unit’s owner changes who co-authors it.');
       }
+      const raw = (req.body ?? {}) as Record<string, unknown>;
       details.push(...(await outcomeProblems(tx, actor.schoolId, raw.outcomeIds)));
       details.push(...(await coauthorProblems(tx, actor.schoolId, facts.ownerId, raw.coauthorIds)));
       if (!data || details.length) throw invalid(details);
@@ -103,8 +140,22 @@ export function unitsRouter(ctx: AppContext): Router {
             .insert(unitCoauthors)
             .values(coauthorIds.map((userId) => ({ unitId: id, userId })));
       }
+      const after = await lockedUnitState(tx, id);
+      if (before && after) {
+        await recordUnitEdit(tx, actor, id, before, after);
+        await mailNewCoauthors(
+          ctx,
+          tx,
+          actor,
+          id,
+          after.title,
+          before.coauthorIds,
+          after.coauthorIds,
+        );
+      }
       return unitDetail(tx, actor, id);
     });
+    ctx.kickMail();
     res.json(unit);
   });
 
@@ -154,6 +205,13 @@ export function unitsRouter(ctx: AppContext): Router {
       ) {
         throw staleOrder('unit', 'lessons', await unitDetail(tx, actor, id));
       }
+      const was = await tx
+        .select({ id: lessons.id })
+        .from(lessons)
+        .where(eq(lessons.unitId, id))
+        .orderBy(asc(lessons.position), asc(lessons.createdAt), asc(lessons.id));
+      if (was.some((l, i) => l.id !== body.lessonIds[i]))
+        await recordLessonsReordered(tx, actor, id);
       await writeOrder(tx, lessons, body.lessonIds);
       await tx
         .update(units)
@@ -169,7 +227,9 @@ export function unitsRouter(ctx: AppContext): Router {
     const { id } = parseParams(idParamsSchema, req);
     const lesson = await ctx.db.transaction(async (tx) => {
       await editableUnit(tx, actor, id);
-      return createLesson(tx, actor, id, req.body);
+      const lesson = await createLesson(tx, actor, id, req.body);
+      await recordLessonAdded(tx, actor, id, lesson.id);
+      return lesson;
     });
     res.status(201).json(lesson);
   });

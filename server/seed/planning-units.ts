@@ -8,6 +8,7 @@ import {
   lessonTubs,
   lessons,
   materials,
+  unitEvents,
   unitOutcomes,
   units,
 } from '../db/schema/index.js';
@@ -109,6 +110,14 @@ export async function insertUnit(
     })
     .returning({ id: units.id });
   const unitId = row!.id;
+  await tx.insert(unitEvents).values({
+    unitId,
+    schoolId: place.schoolId,
+    actorId: place.ownerId,
+    action: 'created',
+    summary: 'created the unit',
+    at: place.createdAt,
+  });
   await tx
     .insert(unitOutcomes)
     .values(outcomeCodes.map((code) => ({ unitId, outcomeId: place.outcomeIds[code]! })));

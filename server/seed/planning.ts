@@ -18,6 +18,7 @@ import {
 } from './planning-rovers.js';
 import { SMART_GATES, SMART_GATES_LESSONS } from './planning-gates.js';
 import { insertUnit } from './planning-units.js';
+import { seedCopy } from './planning-copy.js';
 
 const TEACHER = 'teacher@kestrel-ridge.example';
 const PARTNER = 'partner@kestrel-ridge.example';
@@ -89,23 +90,19 @@ export const seedPlanning: SeedStep = async (tx, { kestrelId, banksiaId, userIds
     SMART_GATES,
     SMART_GATES_LESSONS,
   );
-  // The teaching partner's copy, with its provenance, shared with the school.
-  await insertUnit(
-    tx,
-    {
-      ...common,
-      ownerId: userIds[PARTNER]!,
-      classId: classIds['4M']!,
-      kitTypeId: kits.roverKitId,
-      tubIds: kits.roverTubIds,
-      period: periods['Period 5'],
-      room: 'Room 14',
-      copiedFromId: rescueRoversId,
-      createdAt: new Date('2026-07-15T15:45:00+09:30'),
-    },
-    RESCUE_ROVERS_4M,
-    RESCUE_ROVERS_4M_LESSONS,
-  );
+  // The teaching partner's copy, a real one with its provenance, shared with the school.
+  await seedCopy(tx, {
+    sourceUnitId: rescueRoversId,
+    schoolId: kestrelId,
+    ownerId: userIds[PARTNER]!,
+    classId: classIds['4M']!,
+    period: periods['Period 5'],
+    room: 'Room 14',
+    startDate: RESCUE_ROVERS_4M_LESSONS[0]!.date,
+    at: new Date('2026-07-15T15:45:00+09:30'),
+    unit: RESCUE_ROVERS_4M,
+    lessonSeeds: RESCUE_ROVERS_4M_LESSONS,
+  });
 
   await seedBanksiaKit(tx, banksiaId);
   await tx.insert(classes).values({

@@ -204,6 +204,19 @@ export const unitOutcomeSchema = z.object({
   yearBand: z.string(),
 });
 
+/** Where a copy came from, as it was when copied (null on an original). */
+export const basedOnSchema = z.object({
+  unitId: z.string(),
+  title: z.string(),
+  version: z.number(),
+  ownerName: z.string(),
+  /** ISO 8601 with offset. */
+  copiedAt: z.string(),
+  /** Whether the signed-in user can still open the original (the link is shown only then). */
+  readable: z.boolean(),
+});
+export type BasedOn = z.infer<typeof basedOnSchema>;
+
 /** `GET /api/units/:id` (and every write of a unit, and `error.current` of a 409). */
 export const unitSchema = unitSummarySchema.omit({ lessonCount: true }).extend({
   overview: z.string(),
@@ -214,6 +227,8 @@ export const unitSchema = unitSummarySchema.omit({ lessonCount: true }).extend({
   lessons: z.array(unitLessonSchema),
   /** Whether the signed-in user owns it (only the owner deletes it or changes co-authors). */
   isOwner: z.boolean(),
+  /** The original this unit was copied from (API.md, "Reuse"), or null for an original. */
+  basedOn: basedOnSchema.nullable(),
 });
 export type Unit = z.infer<typeof unitSchema>;
 export type UnitLesson = z.infer<typeof unitLessonSchema>;

@@ -10,3 +10,4 @@ export * from './units.js';
 export * from './history.js';
 export * from './throttle.js';
 export * from './sharing.js';
+export * from './reuse.js';
