@@ -11,6 +11,9 @@ export { basedOnSchema, type BasedOn } from './units.js';
 /** The message when a request body is not a JSON object at all. */
 const BODY = { message: 'Send the details as a JSON object.' };
 
+/** C0 controls and DEL (tabs and line breaks included): a title is one plain line. */
+const CONTROL = /[\u0000-\u001f\u007f]/;
+
 const DATE_MESSAGE = 'Enter a date like 2026-10-06.';
 const DATE_PATTERN = /^(\d{4})-(\d{2})-(\d{2})$/;
 
@@ -33,7 +36,9 @@ export const calendarDateSchema = z
  */
 export const unitCopySchema = z.object(
   {
-    title: requiredText('a title', 200).optional(),
+    title: requiredText('a title', 200)
+      .refine((v) => !CONTROL.test(v), { message: 'Use a title without control characters.' })
+      .optional(),
     classId: uuidSchema.optional(),
     startDate: calendarDateSchema.optional(),
   },
