@@ -53,7 +53,7 @@ let otherSchoolClass = '';
 let kitTypeId = '';
 let tubIds: Record<string, string> = {};
 let sourceId = '';
-let sourceLessonIds: string[] = [];
+const sourceLessonIds: string[] = [];
 let outcomeIds: string[] = [];
 
 /** ISO 32000-1 §7.5.2: a PDF file begins with the header `%PDF-1.n`. */

@@ -56,6 +56,7 @@ const UNIT: Unit = {
   outcomes: [DT401],
   lessons: [],
   isOwner: true,
+  basedOn: null,
 };
 
 const sleep = (ms: number) => new Promise((resolve) => setTimeout(resolve, ms));

@@ -58,6 +58,7 @@ const UNIT: Unit = {
     },
   ],
   isOwner: true,
+  basedOn: null,
 };
 
 describe('UnitDetail', () => {

@@ -40,6 +40,7 @@ function unit(overrides: Partial<Unit> = {}): Unit {
       lesson('l-2', 'Drive train', '2026-07-28'),
     ],
     isOwner: true,
+    basedOn: null,
     ...overrides,
   };
 }

@@ -32,6 +32,7 @@ function createdUnit(): Unit {
     outcomes: [],
     lessons: [],
     isOwner: true,
+    basedOn: null,
   };
 }
 
