@@ -11,15 +11,6 @@ export { basedOnSchema, type BasedOn } from './units.js';
 /** The message when a request body is not a JSON object at all. */
 const BODY = { message: 'Send the details as a JSON object.' };
 
-/** Whether the text holds a C0 control or DEL (tabs and line breaks included). */
-function hasControl(text: string): boolean {
-  for (let i = 0; i < text.length; i++) {
-    const code = text.charCodeAt(i);
-    if (code < 0x20 || code === 0x7f) return true;
-  }
-  return false;
-}
-
 const DATE_MESSAGE = 'Enter a date like 2026-10-06.';
 const DATE_PATTERN = /^(\d{4})-(\d{2})-(\d{2})$/;
 
@@ -42,9 +33,8 @@ export const calendarDateSchema = z
  */
 export const unitCopySchema = z.object(
   {
-    title: requiredText('a title', 200)
-      .refine((v) => !hasControl(v), { message: 'Use a title without control characters.' })
-      .optional(),
+    // requiredText refuses control characters and line breaks (shared/schemas/text.ts).
+    title: requiredText('a title', 200).optional(),
     classId: uuidSchema.optional(),
     startDate: calendarDateSchema.optional(),
   },
