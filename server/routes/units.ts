@@ -5,7 +5,7 @@
  * (./printables.ts) are a sub-router of this one.
  */
 import { Router } from 'express';
-import { and, asc, eq, inArray, sql } from 'drizzle-orm';
+import { asc, eq, inArray, sql } from 'drizzle-orm';
 import type { AppContext } from '../context.js';
 import { lessons, unitCoauthors, unitOutcomes, units, users } from '../db/schema/index.js';
 import type { Tx } from '../db/client.js';
