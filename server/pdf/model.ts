@@ -5,6 +5,7 @@
  */
 import type { PrepPlan, TubStatus } from '../../shared/prep/index.js';
 import type { PaperSize } from '../../shared/schemas/school.js';
+import type { PackAttachment } from './attachments.js';
 
 /** Where and when a file is printed: the school's paper and clock. */
 export interface PrintContext {
@@ -95,8 +96,21 @@ export interface UnitOverviewModel {
 
 /** What the worker is asked to render. */
 export type RenderJob =
-  | { kind: 'lesson-pack'; print: PrintContext; lesson: LessonPackModel }
-  | { kind: 'unit-pack'; print: PrintContext; unit: UnitOverviewModel; lessons: LessonPackModel[] }
+  | {
+      kind: 'lesson-pack';
+      print: PrintContext;
+      lesson: LessonPackModel;
+      /** The activities' build instructions (none when left out). */
+      attachments?: PackAttachment[];
+    }
+  | {
+      kind: 'unit-pack';
+      print: PrintContext;
+      unit: UnitOverviewModel;
+      lessons: LessonPackModel[];
+      /** Every lesson's build instructions (none when left out). */
+      attachments?: PackAttachment[];
+    }
   | {
       kind: 'labels';
       print: PrintContext;

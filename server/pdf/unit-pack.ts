@@ -87,6 +87,8 @@ export function unitPackContent(
   unit: UnitOverviewModel,
   lessons: readonly LessonPackModel[],
   print: PrintContext,
+  /** Pages printed after each lesson's own (its build instructions). */
+  after: (lesson: LessonPackModel) => Content[] = () => [],
 ): ContentNode[] {
   return [
     {
@@ -94,7 +96,7 @@ export function unitPackContent(
       header: pageHeader(print.paper, `Unit pack: ${unit.title}`),
     },
     ...lessons.map((l) => ({
-      section: lessonPackContent(l, print),
+      section: [...lessonPackContent(l, print), ...after(l)],
       header: pageHeader(print.paper, lessonHeading(l)),
     })),
   ];

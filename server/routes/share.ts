@@ -16,6 +16,7 @@ import { loadLessonPack, loadPrintContext } from '../pdf/load.js';
 import { attachment, lessonFileStem, sendDownload } from '../downloads.js';
 import { renderForResponse } from '../pdf/respond.js';
 import { notPlannable } from '../prep/plan-lesson.js';
+import { loadPackAttachments } from '../pdf/load-attachments.js';
 import { openShareLink } from '../sharing/links.js';
 import { activitiesWithAttachments, sharedLesson } from '../sharing/view.js';
 
@@ -43,13 +44,14 @@ export function shareRouter(ctx: AppContext): Router {
   router.get('/:token/pack.pdf', async (req, res) => {
     const { token } = parseParams(tokenParams, req);
     const generatedAt = new Date();
-    const { lesson, print } = await snapshot(async (tx) => {
+    const { lesson, print, files } = await snapshot(async (tx) => {
       const link = await openShareLink(tx, token);
       const lesson = await loadLessonPack(tx, link.lessonId);
       if (!lesson) throw notFound('That lesson');
       return {
         lesson,
         print: await loadPrintContext(tx, link.schoolId, generatedAt),
+        files: await loadPackAttachments(tx, [link.lessonId]),
       };
     });
     if (!lesson.plan) {
@@ -62,6 +64,7 @@ export function shareRouter(ctx: AppContext): Router {
       kind: 'lesson-pack',
       print,
       lesson,
+      attachments: files,
     });
     if (bytes) sendDownload(res, 'application/pdf', `${lessonFileStem(lesson)}.pdf`, bytes);
   });
