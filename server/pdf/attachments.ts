@@ -90,8 +90,8 @@ export function buildInstructionPages(
  * The carrier pages of the attached PDFs, in order: each holds only its caption; the attached
  * page is drawn below it later. An unreadable PDF gets a page saying so instead.
  */
-export function carrierPages(pdfs: readonly MeasuredPdf[]): Content[] {
-  const out: Content[] = [];
+export function carrierPages(pdfs: readonly MeasuredPdf[], breakFirst = true): Content[] {
+  const out: ContentNode[] = [];
   for (const { file, pages } of pdfs) {
     if (pages === null) {
       out.push({
@@ -115,5 +115,8 @@ export function carrierPages(pdfs: readonly MeasuredPdf[]): Content[] {
       });
     }
   }
+  // A section starts on a page of its own already: a break before its first node would leave a
+  // blank page.
+  if (!breakFirst && out[0]) delete out[0].pageBreak;
   return out;
 }

@@ -54,7 +54,12 @@ export function buildDocument(
             withInstructions(lesson, job.attachments ?? [], print.paper),
           ),
           ...(pdfs.length
-            ? [{ section: carrierPages(pdfs), header: pageHeader(print.paper, job.unit.title) }]
+            ? [
+                {
+                  section: carrierPages(pdfs, false),
+                  header: pageHeader(print.paper, job.unit.title),
+                },
+              ]
             : []),
         ],
         { footer },

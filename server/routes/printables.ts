@@ -6,9 +6,10 @@
  * The lessons router mounts the lesson's files, the units router the unit's.
  */
 import { Router, type Request } from 'express';
+import { z } from 'zod';
 import type { AppContext } from '../context.js';
 import type { Tx } from '../db/client.js';
-import { HttpError, notFound, parseParams } from '../http.js';
+import { HttpError, notFound, parse, parseParams } from '../http.js';
 import { requireActor } from '../auth/session.js';
 import { readableLesson, readableUnit } from '../planning/access.js';
 import { idParamsSchema } from '../../shared/schemas/common.js';
@@ -18,6 +19,13 @@ import { renderForResponse } from '../pdf/respond.js';
 import { lessonFileStem, sendDownload, unitFileStem } from '../downloads.js';
 import { notPlannable } from '../prep/plan-lesson.js';
 import { prepCalendar } from '../calendar/prep-calendar.js';
+import { loadPackAttachments } from '../pdf/load-attachments.js';
+
+const unitPackQuery = z.object({
+  attachments: z
+    .enum(['include', 'none'], { message: 'Choose include or none for the build instructions.' })
+    .optional(),
+});
 
 type Snapshot = <T>(work: (tx: Tx) => Promise<T>) => Promise<T>;
 
@@ -43,7 +51,7 @@ export function lessonPrintablesRouter(ctx: AppContext): Router {
     `${ctx.config.appUrl.replace(/\/+$/, '')}/lessons/${lessonId}/prep`;
 
   /** The lesson's model and print context, after the read check (404 when not readable). */
-  async function lessonFor(req: Request) {
+  async function lessonFor(req: Request, withAttachments = false) {
     const actor = requireActor(req);
     const { id } = parseParams(idParamsSchema, req);
     // The one clock reading of the request: the time printed on every page.
@@ -52,14 +60,23 @@ export function lessonPrintablesRouter(ctx: AppContext): Router {
       await readableLesson(tx, actor, id);
       const lesson = await loadLessonPack(tx, id);
       if (!lesson) throw notFound('That lesson');
-      return { lesson, print: await loadPrintContext(tx, actor.schoolId, generatedAt) };
+      return {
+        lesson,
+        print: await loadPrintContext(tx, actor.schoolId, generatedAt),
+        attachments: withAttachments ? await loadPackAttachments(tx, [id]) : [],
+      };
     });
   }
 
   router.get('/:id/pack.pdf', async (req, res) => {
-    const { lesson, print } = await lessonFor(req);
+    const { lesson, print, attachments } = await lessonFor(req, true);
     if (!lesson.plan) throw unplannable(lesson);
-    const bytes = await renderForResponse(res, { kind: 'lesson-pack', print, lesson });
+    const bytes = await renderForResponse(res, {
+      kind: 'lesson-pack',
+      print,
+      lesson,
+      attachments,
+    });
     if (bytes) sendDownload(res, 'application/pdf', `${lessonFileStem(lesson)}.pdf`, bytes);
   });
 
@@ -101,7 +118,7 @@ export function unitPrintablesRouter(ctx: AppContext): Router {
   const lessonUrl = (lessonId: string) =>
     `${ctx.config.appUrl.replace(/\/+$/, '')}/lessons/${lessonId}/prep`;
 
-  async function unitFor(req: Request) {
+  async function unitFor(req: Request, withAttachments = false) {
     const actor = requireActor(req);
     const { id } = parseParams(idParamsSchema, req);
     const generatedAt = new Date();
@@ -109,13 +126,30 @@ export function unitPrintablesRouter(ctx: AppContext): Router {
       await readableUnit(tx, actor, id);
       const unit = await loadUnitPack(tx, id);
       if (!unit) throw notFound('That unit');
-      return { ...unit, print: await loadPrintContext(tx, actor.schoolId, generatedAt) };
+      return {
+        ...unit,
+        print: await loadPrintContext(tx, actor.schoolId, generatedAt),
+        attachments: withAttachments
+          ? await loadPackAttachments(
+              tx,
+              unit.lessons.map((l) => l.id),
+            )
+          : [],
+      };
     });
   }
 
   router.get('/:id/pack.pdf', async (req, res) => {
-    const { unit, lessons, print } = await unitFor(req);
-    const bytes = await renderForResponse(res, { kind: 'unit-pack', print, unit, lessons });
+    // `?attachments=none` leaves the build instructions out (a shorter file to print).
+    const { attachments: mode } = parse(unitPackQuery, req.query);
+    const { unit, lessons, print, attachments } = await unitFor(req, mode !== 'none');
+    const bytes = await renderForResponse(res, {
+      kind: 'unit-pack',
+      print,
+      unit,
+      lessons,
+      attachments,
+    });
     const stem = unitFileStem(
       unit.title,
       lessons.map((l) => l.className),

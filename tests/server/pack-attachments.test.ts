@@ -5,13 +5,13 @@
  */
 import { after, before, describe, it } from 'node:test';
 import assert from 'node:assert/strict';
-import { asc, eq } from 'drizzle-orm';
+import { and, asc, eq, ne } from 'drizzle-orm';
 import supertest from 'supertest';
 import QRCode from 'qrcode';
 import { PDFDocument, StandardFonts } from 'pdf-lib';
 import { getDocument, OPS } from 'pdfjs-dist/legacy/build/pdf.mjs';
 import { testApp, type TestApp } from '../support/app.js';
-import { TEACHER, browsers } from '../support/planning.js';
+import { TEACHER, browsers, download } from '../support/planning.js';
 import { activities, attachments, lessons, units } from '../../server/db/schema/index.js';
 
 let t: TestApp;
@@ -113,5 +113,38 @@ describe('build instructions in the lesson pack', () => {
     assert.ok(texts[base + 2]!.includes('Attached step two'));
     assert.ok(texts[base + 1]!.includes('steps.pdf · page 1 of 2'));
     await pdf.destroy();
+
+    // The lesson's own pack route prints the same pages.
+    const teacher = await browsers(t.app)(TEACHER);
+    const own = await getDocument({
+      data: new Uint8Array((await download(teacher, `/api/lessons/${lessonId}/pack.pdf`)).body),
+    }).promise;
+    assert.equal(own.numPages, base + 3);
+    await own.destroy();
+  });
+
+  it('prints them in the unit pack too, unless left out with ?attachments=none', async () => {
+    const teacher = await browsers(t.app)(TEACHER);
+    const [lesson] = await t.database.db.select().from(lessons).where(eq(lessons.id, lessonId));
+    // A unit of this one lesson keeps the two renders short on a busy test machine.
+    await t.database.db
+      .delete(lessons)
+      .where(and(eq(lessons.unitId, lesson!.unitId), ne(lessons.id, lessonId)));
+    const url = `/api/units/${lesson!.unitId}/pack.pdf`;
+    const pages = async (suffix: string) => {
+      const res = await download(teacher, url + suffix);
+      assert.equal(res.status, 200);
+      const pdf = await getDocument({ data: new Uint8Array(res.body) }).promise;
+      const texts = await pageTexts(pdf);
+      texts.forEach((text, i) => assert.ok(text.includes(`Page ${i + 1} of ${pdf.numPages}`)));
+      await pdf.destroy();
+      return texts;
+    };
+    const without = await pages('?attachments=none');
+    const withThem = await pages('');
+    assert.equal(withThem.length, without.length + 3);
+    assert.ok(withThem.at(-1)!.includes('Attached step two'), 'PDF pages close the unit pack');
+    assert.ok(!without.some((x) => x.includes('step-one.png')));
+    assert.equal((await teacher.get(`${url}?attachments=maybe`)).status, 400);
   });
 });
