@@ -1,6 +1,7 @@
 import type { Routes } from '@angular/router';
 import { roleGuard, signedInGuard, signedOutGuard } from './auth/guards';
 import { AREA_ROLES } from './shell/navigation';
+import { reliefLandsOnToday } from './relief/today-guard';
 
 /**
  * Every route; feature areas load lazily and their guards mirror the server's role rules.
@@ -17,7 +18,14 @@ export const routes: Routes = [
         path: '',
         pathMatch: 'full',
         title: 'Home',
+        canActivate: [reliefLandsOnToday],
         loadComponent: () => import('./home/home').then((m) => m.Home),
+      },
+      {
+        path: 'today',
+        title: 'Today',
+        canActivate: [roleGuard(AREA_ROLES.relief)],
+        loadComponent: () => import('./relief/today').then((m) => m.Today),
       },
       {
         path: 'units',
@@ -104,6 +112,12 @@ export const routes: Routes = [
         loadComponent: () => import('./auth/invitation').then((m) => m.Invitation),
       },
     ],
+  },
+  {
+    // A share link, opened without an account (no guard: the token is the key).
+    path: 'pack/:token',
+    title: 'Shared lesson',
+    loadComponent: () => import('./share/shared-pack').then((m) => m.SharedPack),
   },
   { path: '**', redirectTo: '' },
 ];

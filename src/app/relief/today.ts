@@ -1,0 +1,208 @@
+import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
+import { HttpClient } from '@angular/common/http';
+import { RouterLink } from '@angular/router';
+import { MarkdownComponent } from 'ngx-markdown';
+import { MatButtonModule } from '@angular/material/button';
+import { MatCardModule } from '@angular/material/card';
+import { MatIconModule } from '@angular/material/icon';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { parseWith } from '../errors/parse';
+import { callerShowsErrors } from '../errors/error-context';
+import { AppError } from '../errors/app-error';
+import { saveBlob } from '../files/transfer';
+import { clockTime, dayLabel } from '../lessons/clock';
+import { savedLabel, withSavedCopy } from '../offline/saved-copy';
+import { reliefDaySchema, type ReliefDay } from '../../../shared/schemas/sharing';
+import { ReliefApi } from './relief-api';
+
+type DayLesson = ReliefDay['lessons'][number];
+
+/**
+ * A relief teacher's "Today": each lesson assigned to them today in time order, with room,
+ * class, notes, the prep tasks still open, build instructions and one button for the pack.
+ * Offline, it shows the copy saved in this browser and says from when.
+ */
+@Component({
+  selector: 'app-today',
+  imports: [
+    RouterLink,
+    MarkdownComponent,
+    MatButtonModule,
+    MatCardModule,
+    MatIconModule,
+    MatProgressBarModule,
+  ],
+  template: `
+    <section class="page">
+      <h1>Today</h1>
+      @if (savedAt(); as at) {
+        <p class="saved" role="status">
+          <mat-icon aria-hidden="true">cloud_off</mat-icon>
+          You are offline. This is the copy saved in this browser on {{ saved(at) }}.
+        </p>
+      }
+      @if (problem(); as p) {
+        <p role="alert">{{ p }}</p>
+      } @else if (day(); as d) {
+        <p class="muted">{{ dayName(d.date) }}</p>
+        @if (d.lessons.length === 0) {
+          <p>
+            No lessons are assigned to you today.
+            <a routerLink="/relief">All your lessons</a>
+          </p>
+        }
+        <ol class="lessons">
+          @for (lesson of d.lessons; track lesson.id) {
+            <li>
+              <mat-card appearance="outlined">
+                <mat-card-content>
+                  <h2>
+                    {{ clock(lesson.startsAt) }}–{{ clock(lesson.endsAt) }} · {{ lesson.title }}
+                  </h2>
+                  <p class="facts">
+                    Room: <strong>{{ lesson.room || 'not given' }}</strong> · Class:
+                    <strong>{{ lesson.className }}</strong>
+                    @if (lesson.periodName) {
+                      · {{ lesson.periodName }}
+                    }
+                    · {{ lesson.unitTitle }}
+                  </p>
+                  @if (lesson.reliefNotes) {
+                    <h3>Notes from the teacher</h3>
+                    <markdown [data]="lesson.reliefNotes" />
+                  }
+                  <h3>Prep still to do</h3>
+                  @if (lesson.openTasks.length) {
+                    <ul>
+                      @for (task of lesson.openTasks; track $index) {
+                        <li>
+                          {{ task.label }}: start by {{ clock(task.startBy) }}, done by
+                          {{ clock(task.doneBy) }} ({{ task.minutes }} min)
+                        </li>
+                      }
+                    </ul>
+                  } @else {
+                    <p class="muted">Nothing left to prepare.</p>
+                  }
+                  @if (hasInstructions(lesson)) {
+                    <h3>Build instructions</h3>
+                    <ul>
+                      @for (activity of lesson.activities; track activity.id) {
+                        @for (file of activity.attachments; track file.id) {
+                          <li>
+                            {{ activity.title }}:
+                            <a [href]="'/api/activities/attachments/' + file.id" download>
+                              {{ file.filename }}
+                            </a>
+                          </li>
+                        }
+                      }
+                    </ul>
+                  }
+                  <div class="actions">
+                    <button
+                      matButton="filled"
+                      type="button"
+                      [disabled]="printing() !== null || !lesson.plannable"
+                      (click)="print(lesson)"
+                    >
+                      <mat-icon aria-hidden="true">print</mat-icon>
+                      Lesson pack
+                    </button>
+                    <a matButton="outlined" [routerLink]="['/lessons', lesson.id]">Open lesson</a>
+                  </div>
+                  @if (printing() === lesson.id) {
+                    <mat-progress-bar mode="indeterminate" aria-label="Making the lesson pack" />
+                  }
+                </mat-card-content>
+              </mat-card>
+            </li>
+          }
+        </ol>
+      } @else {
+        <mat-progress-bar mode="indeterminate" aria-label="Loading today's lessons" />
+      }
+    </section>
+  `,
+  styles: `
+    .lessons {
+      list-style: none;
+      padding: 0;
+      display: grid;
+      gap: 16px;
+    }
+    .saved {
+      display: flex;
+      gap: 8px;
+      align-items: center;
+      padding: 8px 12px;
+      border: 2px solid currentColor;
+      border-radius: 8px;
+    }
+    .actions {
+      display: flex;
+      gap: 12px;
+      margin-top: 12px;
+    }
+  `,
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class Today {
+  private readonly http = inject(HttpClient);
+  private readonly relief = inject(ReliefApi);
+
+  protected readonly day = signal<ReliefDay | null>(null);
+  protected readonly savedAt = signal<string | null>(null);
+  protected readonly problem = signal<string | null>(null);
+  protected readonly printing = signal<string | null>(null);
+
+  constructor() {
+    const read = this.http
+      .get('/api/relief/today', { context: callerShowsErrors() })
+      .pipe(parseWith(reliefDaySchema));
+    withSavedCopy('relief.today', read).subscribe({
+      next: ({ value, savedAt }) => {
+        this.day.set(value);
+        this.savedAt.set(savedAt);
+      },
+      error: (e: unknown) =>
+        this.problem.set(
+          e instanceof AppError && e.status === 0
+            ? 'Trayplan cannot be reached, and this browser has no saved copy of today yet.'
+            : e instanceof AppError
+              ? e.message
+              : 'Today could not be loaded.',
+        ),
+    });
+  }
+
+  protected clock(value: string): string {
+    return clockTime(value);
+  }
+
+  protected dayName(date: string): string {
+    return dayLabel(`${date}T00:00`);
+  }
+
+  protected saved(at: string): string {
+    return savedLabel(at);
+  }
+
+  protected hasInstructions(lesson: DayLesson): boolean {
+    return lesson.activities.some((a) => a.attachments.length > 0);
+  }
+
+  protected print(lesson: DayLesson): void {
+    if (this.printing()) return;
+    this.printing.set(lesson.id);
+    this.relief.pack(lesson.id).subscribe({
+      next: (event) => {
+        if (event.kind === 'done') {
+          this.printing.set(null);
+          saveBlob(event.blob, event.name ?? `${lesson.className}-lesson-pack.pdf`);
+        }
+      },
+      error: () => this.printing.set(null),
+    });
+  }
+}
