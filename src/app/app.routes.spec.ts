@@ -70,6 +70,7 @@ describe('app routes', () => {
   it('sends a signed-in user away from sign-in', async () => {
     await start('relief');
     await harness.navigateByUrl('/sign-in');
-    expect(url()).toBe('/');
+    // Home for a relief teacher is their day (issue 13): they land on Today.
+    expect(url()).toBe('/today');
   });
 });

@@ -14,11 +14,12 @@ import { formErrorMessage, showFieldError } from '../forms/server-errors';
 import { NEW_PASSWORD_WORDS, PasswordPair, passwordPair } from '../forms/password-pair';
 import { zodValidator } from '../forms/validators';
 import { AccountApi } from './account-api';
+import { CalendarFeed } from './calendar-feed';
 
 /** Shown under "Current password" when it is wrong. */
 export const WRONG_PASSWORD_MESSAGE = "That isn't your current password.";
 
-/** `/account`: the user's name and password. */
+/** `/account`: the user's name and password, and their calendar feed. */
 @Component({
   selector: 'app-account',
   imports: [
@@ -29,6 +30,7 @@ export const WRONG_PASSWORD_MESSAGE = "That isn't your current password.";
     MatButtonModule,
     FieldErrorPipe,
     PasswordPair,
+    CalendarFeed,
   ],
   templateUrl: './account.html',
   styleUrl: './account.scss',

@@ -49,6 +49,31 @@ describe('LessonView', () => {
       .expectOne('/api/kit-types/kit-rover')
       .flush({ kitType: { ...KIT_SUMMARY, parts: workedExampleParts() } });
     await fixture.whenStable();
+    // An author sees the lesson's share links.
+    backend.expectOne('/api/lessons/lesson-2/share-links').flush({
+      links: [
+        {
+          id: 'link-1',
+          expiresAt: '2099-08-04T14:30:00.000Z',
+          email: 'cover@relief.example',
+          revokedAt: null,
+        },
+      ],
+    });
+    await fixture.whenStable();
+  });
+
+  it('lists the lesson’s share links and withdraws one', async () => {
+    expect(text()).toContain('cover@relief.example');
+    const withdraw = await loader.getHarness(MatButtonHarness.with({ text: 'Withdraw' }));
+    await withdraw.click();
+    const req = backend.expectOne('/api/share-links/link-1');
+    expect(req.request.method).toBe('DELETE');
+    req.flush(null, { status: 204, statusText: 'No Content' });
+    await fixture.whenStable();
+    backend.expectOne('/api/lessons/lesson-2/share-links').flush({ links: [] });
+    await fixture.whenStable();
+    expect(text()).not.toContain('cover@relief.example');
   });
 
   afterEach(() => backend.verify());

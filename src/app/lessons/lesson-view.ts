@@ -26,6 +26,8 @@ import { staleConflict } from '../errors/conflict';
 import { apiResource, sameAnswer } from '../http/resource';
 import { Notifier } from '../errors/notifier';
 import { CAUTIONS_DEFER, SAFETY_CAUTIONS } from './cautions';
+import { BuildInstructions } from './build-instructions';
+import { ShareLinks } from '../share/share-links';
 import { clockOn, clockTime, dayLabel } from './clock';
 import { groupSizeFor } from './group-size';
 import { LessonsApi, type Printable } from './lessons-api';
@@ -54,6 +56,8 @@ interface Conflict {
     GroupBorrowsPipe,
     PullList,
     Timeline,
+    BuildInstructions,
+    ShareLinks,
   ],
   templateUrl: './lesson-view.html',
   styleUrl: './lesson-view.scss',
