@@ -19,6 +19,7 @@ import {
   units,
 } from '../db/schema/index.js';
 import { parse } from '../http.js';
+import { schoolDate } from '../../shared/schemas/text.js';
 import { requireActor } from '../auth/session.js';
 import { authorsUnit, canReadLesson, type Actor } from '../auth/policy.js';
 import { intervalsOverlap, naturalCompare, type PrepPlan } from '../../shared/prep/index.js';
@@ -26,10 +27,7 @@ import { toLocal } from '../planning/format.js';
 import { planLesson } from '../prep/plan-lesson.js';
 
 const weekQuery = z.object({
-  week: z
-    .string()
-    .regex(/^\d{4}-\d{2}-\d{2}$/, 'Give the week as a date like 2026-07-27.')
-    .refine((d) => DateTime.fromISO(d).isValid, 'That date does not exist.'),
+  week: schoolDate('Give the week as a date that exists, like 2026-07-27.'),
   mine: z.enum(['true', 'false']).optional(),
 });
 
@@ -177,8 +175,8 @@ export function agendaRouter(ctx: AppContext): Router {
 }
 
 const rangeQuery = z.object({
-  from: z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'Give a date like 2026-07-20.'),
-  to: z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'Give a date like 2026-09-25.'),
+  from: schoolDate('Give a date that exists, like 2026-07-20.'),
+  to: schoolDate('Give a date that exists, like 2026-09-25.'),
 });
 
 /** Booking conflicts and recharge gaps among the actor's readable lessons in [from, to). */

@@ -3,7 +3,7 @@
  * Used by the server and the client; the CSV importer checks rows with `partInputSchema` too.
  */
 import * as z from 'zod';
-import { multiLine, singleLine } from './text.js';
+import { VERSION_MAX, multiLine, singleLine } from './text.js';
 import { uuidSchema, whole } from './common.js';
 import { TUB_STATUSES } from '../definitions.js';
 
@@ -46,7 +46,9 @@ function optionalText(max: number, what: string) {
 /** The version a record was read at, sent back with every edit. */
 export const versionSchema = z
   .number({ error: 'Send the version you read.' })
-  .refine((v) => Number.isInteger(v) && v >= 1, { error: 'Send the version you read.' });
+  .refine((v) => Number.isInteger(v) && v >= 1 && v <= VERSION_MAX, {
+    error: 'Send the version you read.',
+  });
 
 /**
  * Issues for values listed twice, naming the earlier line. Runs even when some lines have other

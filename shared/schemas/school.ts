@@ -3,7 +3,7 @@
  * calendar (terms, bell periods, non-teaching days). Used by the server and the client alike.
  */
 import * as z from 'zod';
-import { singleLine } from './text.js';
+import { VERSION_MAX, singleLine } from './text.js';
 import { uuidSchema, whole } from './common.js';
 import { DEFAULT_PREP } from '../definitions.js';
 import { isIanaTimeZone, timeZoneNames } from '../prep/time.js';
@@ -171,7 +171,9 @@ export const schoolSettingsUpdateSchema = z
   .object({
     version: z
       .number({ error: 'Send the version you read.' })
-      .refine((v) => Number.isInteger(v) && v >= 1, { error: 'Send the version you read.' }),
+      .refine((v) => Number.isInteger(v) && v >= 1 && v <= VERSION_MAX, {
+        error: 'Send the version you read.',
+      }),
     name: singleLine({ error: 'Enter the school name.' })
       .trim()
       .min(1, { error: 'Enter the school name.' })

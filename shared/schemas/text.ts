@@ -35,3 +35,30 @@ export function multiLine(params?: StringParams) {
 export function isSingleLine(value: string): boolean {
   return !NOT_ONE_LINE.test(value);
 }
+
+/** The largest version a record can carry: PostgreSQL's integer (docs §8.1.1) ends here. */
+export const VERSION_MAX = 2_147_483_647;
+
+/** Years a school date may fall in (our choice: PostgreSQL has no year 0, and none is needed). */
+export const YEAR_MIN = 1900;
+export const YEAR_MAX = 2999;
+
+/** A `YYYY-MM-DD` day that exists in the calendar, within YEAR_MIN…YEAR_MAX. */
+export function schoolDate(message: string) {
+  return z.string({ error: message }).refine(
+    (s) => {
+      const m = /^(\d{4})-(\d{2})-(\d{2})$/.exec(s);
+      if (!m) return false;
+      const [y, mo, d] = [Number(m[1]), Number(m[2]), Number(m[3])];
+      const t = new Date(Date.UTC(y, mo - 1, d));
+      return (
+        y >= YEAR_MIN &&
+        y <= YEAR_MAX &&
+        t.getUTCFullYear() === y &&
+        t.getUTCMonth() === mo - 1 &&
+        t.getUTCDate() === d
+      );
+    },
+    { error: message },
+  );
+}

@@ -4,7 +4,7 @@
  * messages the same way.
  */
 import * as z from 'zod';
-import { multiLine, singleLine } from './text.js';
+import { VERSION_MAX, multiLine, singleLine } from './text.js';
 import { uuidSchema } from './common.js';
 
 /** The message when a request body is not a JSON object at all. */
@@ -42,9 +42,10 @@ export function wholeNumber(
 }
 
 /** The version a record was read at, sent back with every edit (a stale one is a 409). */
-export const versionSchema = z.int({ message: 'Send the version you loaded.' }).min(1, {
-  message: 'Send the version you loaded.',
-});
+export const versionSchema = z
+  .int({ message: 'Send the version you loaded.' })
+  .min(1, { message: 'Send the version you loaded.' })
+  .max(VERSION_MAX, { message: 'Send the version you loaded.' });
 
 /** A list of distinct ids (an id twice is a mistake the client should hear about). */
 export function distinctIds(max: number, what: string) {

@@ -34,9 +34,25 @@ export async function benchServer(): Promise<BenchRow[]> {
       .offset(1)
       .limit(1);
     const health = await load(`${base}/api/health`, {});
+    // The floor every signed-in request pays (session read, actor load): the prep route's baseline.
+    const me = await load(`${base}/api/auth/me`, { cookie });
     const prep = await load(`${base}/api/lessons/${lesson!.id}/prep`, { cookie });
     if (prep.non2xx > 0) throw new Error(`prep answered ${prep.non2xx} non-2xx responses`);
+    if (me.non2xx > 0) throw new Error(`auth/me answered ${me.non2xx} non-2xx responses`);
+    const share = me.requests.average ? prep.requests.average / me.requests.average : 0;
     return [
+      {
+        name: 'server: GET /api/auth/me, 50 connections',
+        median: me.latency.p50,
+        unit: 'ms',
+        note: `p99 ${me.latency.p99} ms, ${Math.round(me.requests.average)} req/s`,
+      },
+      {
+        name: 'server: prep throughput ÷ auth/me throughput',
+        median: Number((share * 100).toFixed(0)),
+        unit: '%',
+        note: `target ≥ 50 %: ${share >= 0.5 ? 'met' : 'missed'}`,
+      },
       {
         name: 'server: GET /api/health, 50 connections',
         median: health.latency.p50,
