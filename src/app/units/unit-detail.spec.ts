@@ -7,7 +7,7 @@ import { MatProgressBarHarness } from '@angular/material/progress-bar/testing';
 import { MatSnackBarHarness } from '@angular/material/snack-bar/testing';
 import { provideMarkdown } from 'ngx-markdown';
 import type { Unit } from '../../../shared/schemas/units';
-import { errorBody, testProviders } from '../testing/test-providers';
+import { errorBody, settleReads, testProviders } from '../testing/test-providers';
 import { UnitDetail } from './unit-detail';
 
 /** An invented unit of the invented demo school. */
@@ -61,6 +61,24 @@ const UNIT: Unit = {
   basedOn: null,
 };
 
+/** Its history, newest first (invented). */
+const HISTORY = {
+  events: [
+    {
+      at: '2026-07-20T01:30:00.000Z',
+      actor: { id: 'user-teacher', name: 'Jordan Pell' },
+      action: 'lesson-edited',
+      summary: 'Drive train: group size 3 → 4',
+    },
+    {
+      at: '2026-07-13T00:00:00.000Z',
+      actor: { id: 'user-teacher', name: 'Jordan Pell' },
+      action: 'created',
+      summary: 'created the unit',
+    },
+  ],
+};
+
 describe('UnitDetail', () => {
   it('renders the overview as sanitised Markdown, the outcomes and the lessons in order', async () => {
     TestBed.configureTestingModule({ providers: [testProviders(), provideMarkdown()] });
@@ -69,6 +87,8 @@ describe('UnitDetail', () => {
     fixture.componentRef.setInput('id', 'u-1');
     fixture.detectChanges();
     backend.expectOne('/api/units/u-1').flush(UNIT);
+    await settleReads();
+    backend.expectOne('/api/units/u-1/history').flush(HISTORY);
     await fixture.whenStable();
     await new Promise((resolve) => setTimeout(resolve, 50));
     fixture.detectChanges();
@@ -87,6 +107,49 @@ describe('UnitDetail', () => {
       ['Drive train', '/lessons/l-2'],
     ]);
     expect(el.textContent).toContain('Tue 28 Jul 2026, 11:10 am–12:00 pm');
+    const history = Array.from(el.querySelectorAll('.history li')).map((li) =>
+      li.textContent?.replace(/\s+/g, ' ').trim(),
+    );
+    expect(history.length).toBe(2);
+    expect(history[0]).toContain('Jordan Pell');
+    expect(history[0]).toContain('Drive train: group size 3 → 4');
+    expect(el.querySelector('app-unit-provenance')).toBeNull();
+    backend.verify();
+  });
+
+  it('on a copy, says where it came from, links the original and lists what changed there', async () => {
+    TestBed.configureTestingModule({ providers: [testProviders(), provideMarkdown()] });
+    const backend = TestBed.inject(HttpTestingController);
+    const fixture = TestBed.createComponent(UnitDetail);
+    fixture.componentRef.setInput('id', 'u-1');
+    fixture.detectChanges();
+    const basedOn = {
+      unitId: 'u-original',
+      title: 'Rescue Rovers',
+      version: 3,
+      ownerName: 'Sam Kowhai',
+      copiedAt: '2026-07-15T06:15:00.000Z',
+      readable: true,
+    };
+    backend.expectOne('/api/units/u-1').flush({ ...UNIT, basedOn });
+    await settleReads();
+    backend.expectOne('/api/units/u-1/history').flush({ events: [] });
+    backend.expectOne('/api/units/u-1/upstream').flush({
+      basedOn,
+      sourceVersion: 5,
+      changed: true,
+      changes: [{ summary: 'added lesson Winch (2026-09-08 11:10–12:00)' }],
+    });
+    await fixture.whenStable();
+    fixture.detectChanges();
+    const el = fixture.nativeElement as HTMLElement;
+    const line = el.querySelector('app-unit-provenance')?.textContent?.replace(/\s+/g, ' ');
+    expect(line).toContain('Based on version 3 of Rescue Rovers by Sam Kowhai, copied 15 Jul 2026');
+    expect(el.querySelector('app-unit-provenance a')?.getAttribute('href')).toBe(
+      '/units/u-original',
+    );
+    expect(el.textContent).toContain('The original changed since you copied it');
+    expect(el.textContent).toContain('added lesson Winch (2026-09-08 11:10–12:00)');
     backend.verify();
   });
 
@@ -104,6 +167,8 @@ describe('UnitDetail', () => {
       fixture.componentRef.setInput('id', 'u-1');
       fixture.detectChanges();
       backend.expectOne('/api/units/u-1').flush(UNIT);
+      await settleReads();
+      backend.expectOne('/api/units/u-1/history').flush(HISTORY);
       await fixture.whenStable();
       // saveBlob hands the file to the browser through a link's `download` name: watch that link.
       saved = [];

@@ -10,6 +10,12 @@ import { clockTime, dayLabel } from '../lessons/clock';
 import { saveBlob } from '../files/transfer';
 import { yearLabel } from './labels';
 import { UnitsApi, type UnitPrintable } from './units-api';
+import { CopyDialog, copyDialogData } from './copy-dialog';
+import { UnitHistory } from './unit-history';
+import { UnitProvenance } from './unit-provenance';
+import { UpstreamPanel } from './upstream-panel';
+import { Session } from '../auth/session';
+import { MatDialog } from '@angular/material/dialog';
 
 /**
  * `/units/:id`: a unit's overview (Markdown, sanitised by ngx-markdown's default Angular
@@ -17,7 +23,16 @@ import { UnitsApi, type UnitPrintable } from './units-api';
  */
 @Component({
   selector: 'app-unit-detail',
-  imports: [RouterLink, MarkdownComponent, MatButtonModule, MatIconModule, MatProgressBarModule],
+  imports: [
+    RouterLink,
+    MarkdownComponent,
+    MatButtonModule,
+    MatIconModule,
+    MatProgressBarModule,
+    UnitHistory,
+    UnitProvenance,
+    UpstreamPanel,
+  ],
   template: `
     <section class="page">
       @if (!unit() && !error()) {
@@ -39,6 +54,9 @@ import { UnitsApi, type UnitPrintable } from './units-api';
           }
           · {{ statusLabels[unit.status] }} · by {{ unit.owner.name || unit.owner.email }}
         </p>
+        @if (unit.basedOn; as basedOn) {
+          <app-unit-provenance [basedOn]="basedOn" />
+        }
 
         <div class="actions">
           @if (unit.canEdit) {
@@ -50,6 +68,12 @@ import { UnitsApi, type UnitPrintable } from './units-api';
               <mat-icon aria-hidden="true">add</mat-icon>
               Add lesson
             </a>
+          }
+          @if (canCopy()) {
+            <button matButton="outlined" type="button" (click)="copy(unit)">
+              <mat-icon aria-hidden="true">content_copy</mat-icon>
+              Copy to my units
+            </button>
           }
           <button
             matButton="outlined"
@@ -81,6 +105,10 @@ import { UnitsApi, type UnitPrintable } from './units-api';
           <p class="muted" aria-live="polite">
             {{ d.file === 'pack.pdf' ? 'Making the unit pack…' : 'Making the prep calendar…' }}
           </p>
+        }
+
+        @if (unit.basedOn?.readable) {
+          <app-upstream-panel [unitId]="unit.id" />
         }
 
         <h2>Overview</h2>
@@ -119,6 +147,8 @@ import { UnitsApi, type UnitPrintable } from './units-api';
         } @else {
           <p class="muted">No lessons yet.</p>
         }
+
+        <app-unit-history [unitId]="unit.id" />
       }
     </section>
   `,
@@ -140,11 +170,18 @@ import { UnitsApi, type UnitPrintable } from './units-api';
 })
 export class UnitDetail {
   private readonly api = inject(UnitsApi);
+  private readonly dialog = inject(MatDialog);
+  private readonly session = inject(Session);
 
   /** Route parameter `:id`. */
   readonly id = input.required<string>();
 
   protected readonly statusLabels = UNIT_STATUS_LABELS;
+  /** Teachers and leads copy a unit they read into their own (the server has the last word). */
+  protected readonly canCopy = computed(() => {
+    const role = this.session.user()?.role;
+    return role === 'teacher' || role === 'lead';
+  });
   private readonly read = apiResource({
     params: () => this.id(),
     load: (id: string) => this.api.get(id),
@@ -155,6 +192,11 @@ export class UnitDetail {
   protected readonly download = signal<{ file: UnitPrintable; fraction: number | null } | null>(
     null,
   );
+
+  /** Opens the copy dialog; "Open the copy" there navigates to the new unit. */
+  protected copy(unit: Unit): void {
+    this.dialog.open(CopyDialog, { data: copyDialogData(unit), width: '34rem' });
+  }
 
   /** Downloads a printable and saves it under the name the server gave it. */
   protected print(file: UnitPrintable): void {

@@ -26,6 +26,9 @@ import {
 } from '../../../shared/schemas/units';
 import { TERMS, YEAR_LEVELS, yearLabel } from './labels';
 import { UnitsApi, type TeacherRef, type UnitFilters } from './units-api';
+import { CopyDialog, copyDialogData } from './copy-dialog';
+import { Session } from '../auth/session';
+import { MatDialog } from '@angular/material/dialog';
 
 /** `/units`: "My units" and the school library, filtered by year level, term, status and text. */
 @Component({
@@ -48,6 +51,8 @@ import { UnitsApi, type TeacherRef, type UnitFilters } from './units-api';
 })
 export class UnitList {
   private readonly api = inject(UnitsApi);
+  private readonly dialog = inject(MatDialog);
+  private readonly session = inject(Session);
 
   protected readonly scopes = ['mine', 'library'] as const;
   protected readonly yearLevels = YEAR_LEVELS;
@@ -69,6 +74,11 @@ export class UnitList {
     'lessons',
     'updated',
   ];
+
+  /** The library has a Copy button on each row. */
+  protected readonly shownColumns = computed(() =>
+    this.scope() === 'library' ? [...this.columns, 'copy'] : this.columns,
+  );
 
   protected readonly scope = signal<UnitFilters['scope']>('mine');
   protected readonly yearLevel = signal<number | null>(null);
@@ -107,6 +117,21 @@ export class UnitList {
         this.loading.set(false);
         if (units) this.units.set(units);
       });
+  }
+
+  /** Whether the signed-in teacher co-authors (and does not own) the unit. */
+  protected coauthored(unit: UnitSummary): boolean {
+    const me = this.session.user()?.id;
+    return unit.canEdit && me !== undefined && unit.owner.id !== me;
+  }
+
+  /** Reads the unit (for its first lesson's date), then opens the copy dialog. */
+  protected copy(summary: UnitSummary): void {
+    this.api
+      .get(summary.id)
+      .subscribe((unit) =>
+        this.dialog.open(CopyDialog, { data: copyDialogData(unit), width: '34rem' }),
+      );
   }
 
   protected selectTab(index: number): void {
