@@ -54,7 +54,7 @@ describe('reusing a colleague’s unit through the screens', () => {
     await page.getByRole('heading', { level: 1, name: title }).waitFor();
 
     // Its provenance, linking to the original, and its history.
-    const provenance = page.getByText(/^Based on version \d+ of/);
+    const provenance = page.locator('app-unit-provenance');
     await provenance.waitFor();
     assert.match(
       await provenance.innerText(),
