@@ -30,6 +30,8 @@ import { reliefRouter } from './routes/relief.js';
 import { shareLinksRouter } from './routes/share-links.js';
 import { shareRouter } from './routes/share.js';
 import { calendarFeedRouter, calendarRouter } from './routes/calendar-feed.js';
+import { reviewRouter } from './routes/review.js';
+import { coverageRouter } from './routes/coverage.js';
 
 export const clientDir = fileURLToPath(new URL('../dist/trayplan/browser', import.meta.url));
 
@@ -75,6 +77,8 @@ function api(ctx: AppContext, options: AppOptions): express.Router {
   router.use('/kit-types', kitTypesRouter(ctx));
   router.use('/tubs', tubsRouter(ctx));
   router.use('/outcomes', outcomesRouter(ctx));
+  router.use(reviewRouter(ctx));
+  router.use(coverageRouter(ctx));
   router.use('/units', unitsRouter(ctx));
   router.use('/units', reuseRouter(ctx));
   router.use('/agenda', agendaRouter(ctx));

@@ -31,7 +31,8 @@ const ACTIONS = {
   'outcomes.edit': ['admin', 'lead'],
   'units.create': ['teacher'],
   'units.read': ['lead', 'teacher'],
-  'units.review': ['lead'],
+  'units.review': ['lead', 'admin'],
+  'coverage.read': ['admin', 'lead', 'teacher'],
   /** Copying a unit the actor can read into their own units (API.md, "Reuse"); relief never. */
   'units.copy': ['admin', 'lead', 'teacher'],
 } as const satisfies Record<string, readonly Role[]>;
@@ -107,4 +108,25 @@ export function canReadLesson(
  */
 export function canShareLesson(actor: Actor, unit: UnitFacts): boolean {
   return canEditUnit(actor, unit) || (actor.role === 'admin' && sameSchool(actor, unit.schoolId));
+}
+
+/** A unit's facts with its review status, for the review rules. */
+export interface ReviewFacts extends UnitFacts {
+  /** draft, in-review, changes-requested or endorsed. */
+  status: string;
+}
+
+/** Whether the actor decides on the school's units sent for review (leads and admins). */
+export function reviewsUnits(actor: Actor, schoolId: string): boolean {
+  return sameSchool(actor, schoolId) && can(actor, 'units.review');
+}
+
+/**
+ * Who sees a unit in its review (its comments, its review page, the coverage matrix): whoever
+ * reads it, and the school's admins once it has been sent for review. Admins do not read
+ * teachers' drafts (see canReadUnit); a unit sent for review is one they may decide on.
+ */
+export function canSeeInReview(actor: Actor, unit: ReviewFacts): boolean {
+  if (canReadUnit(actor, unit)) return true;
+  return actor.role === 'admin' && sameSchool(actor, unit.schoolId) && unit.status !== 'draft';
 }

@@ -19,6 +19,7 @@ import { lessonPackContent } from './lesson-pack.js';
 import { lessonHeading } from './pack-view.js';
 import { unitPackContent } from './unit-pack.js';
 import { labelsDocument } from './labels.js';
+import { coverageDocument } from './coverage.js';
 
 /** The document definition of a job; `pdfs` are its attached PDFs as measured (see renderPdf). */
 export function buildDocument(
@@ -66,6 +67,8 @@ export function buildDocument(
       );
     case 'labels':
       return labelsDocument(job.lesson, job.groupUrls, print);
+    case 'coverage':
+      return coverageDocument(job);
   }
 }
 
@@ -85,7 +88,7 @@ function withInstructions(
  */
 export async function renderPdf(job: RenderJob): Promise<Uint8Array> {
   const pdfmake = preparePdfmake();
-  const files = job.kind === 'labels' ? [] : (job.attachments ?? []);
+  const files = job.kind === 'labels' || job.kind === 'coverage' ? [] : (job.attachments ?? []);
   const pdfs = await measurePdfs(files.filter((f) => f.contentType === 'application/pdf'));
   const buffer = await pdfmake.createPdf(buildDocument(job, pdfs)).getBuffer();
   const bytes = new Uint8Array(buffer.buffer, buffer.byteOffset, buffer.byteLength);

@@ -6,6 +6,7 @@
 import type { PrepPlan, TubStatus } from '../../shared/prep/index.js';
 import type { PaperSize } from '../../shared/schemas/school.js';
 import type { PackAttachment } from './attachments.js';
+import type { CoverageJob } from './coverage.js';
 
 /** Where and when a file is printed: the school's paper and clock. */
 export interface PrintContext {
@@ -117,4 +118,5 @@ export type RenderJob =
       lesson: LessonPackModel & { plan: PrepPlan };
       /** The app's address of each group's pull list, in group order (encoded in the QR codes). */
       groupUrls: string[];
-    };
+    }
+  | CoverageJob;

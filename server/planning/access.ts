@@ -14,6 +14,7 @@ import {
   type Actor,
   type UnitFacts,
 } from '../auth/policy.js';
+import { withdrawEndorsement } from '../review/endorsement.js';
 
 /** A unit's facts for the policy, or null when there is no such unit. */
 export async function loadUnitFacts(tx: Tx, unitId: string): Promise<UnitFacts | null> {
@@ -36,11 +37,22 @@ export async function readableUnit(tx: Tx, actor: Actor, unitId: string): Promis
   return facts;
 }
 
-/** The unit's facts when the actor may edit it; 404 when they cannot read it, 403 if only read. */
-export async function editableUnit(tx: Tx, actor: Actor, unitId: string): Promise<UnitFacts> {
+/**
+ * The unit's facts when the actor may edit it; 404 when they cannot read it, 403 if only read.
+ * Every caller is about to change the unit inside `tx`, so an endorsed unit goes back to draft
+ * here, once for every kind of edit (rolled back with the edit if the edit fails). With
+ * `{ change: false }` it only checks (an upload's check before its body is read).
+ */
+export async function editableUnit(
+  tx: Tx,
+  actor: Actor,
+  unitId: string,
+  options: { change?: boolean } = {},
+): Promise<UnitFacts> {
   const facts = await readableUnit(tx, actor, unitId);
   if (!canEditUnit(actor, facts))
     throw forbidden('Only the unit’s owner and co-authors can change it.');
+  if (options.change !== false) await withdrawEndorsement(tx, actor, unitId);
   return facts;
 }
 
@@ -76,11 +88,20 @@ export async function readableLesson(tx: Tx, actor: Actor, lessonId: string): Pr
   return facts;
 }
 
-/** A lesson is edited by whoever edits its unit. */
-export async function editableLesson(tx: Tx, actor: Actor, lessonId: string): Promise<LessonFacts> {
+/**
+ * A lesson is edited by whoever edits its unit; as for the unit, an edit of a lesson (or of its
+ * activities) puts an endorsed unit back to draft unless `{ change: false }`.
+ */
+export async function editableLesson(
+  tx: Tx,
+  actor: Actor,
+  lessonId: string,
+  options: { change?: boolean } = {},
+): Promise<LessonFacts> {
   const facts = await readableLesson(tx, actor, lessonId);
   if (!canEditUnit(actor, facts.unit))
     throw forbidden('Only the unit’s owner and co-authors can change its lessons.');
+  if (options.change !== false) await withdrawEndorsement(tx, actor, facts.unitId);
   return facts;
 }
 
@@ -92,19 +113,22 @@ async function activityLessonId(tx: Tx, activityId: string): Promise<string | nu
   return row?.lessonId ?? null;
 }
 
-/** An activity's lesson facts, under the lesson's rules (404 / 403 as for the lesson). */
+/**
+ * An activity's lesson facts, under the lesson's rules (404 / 403 as for the lesson). `edit`
+ * is about to change it (see editableLesson); `check` asks the same question and changes nothing.
+ */
 export async function activityAccess(
   tx: Tx,
   actor: Actor,
   activityId: string,
-  mode: 'read' | 'edit',
+  mode: 'read' | 'edit' | 'check',
 ): Promise<LessonFacts> {
   const lessonId = await activityLessonId(tx, activityId);
   if (!lessonId) throw notFound('That activity');
   try {
     return mode === 'read'
       ? await readableLesson(tx, actor, lessonId)
-      : await editableLesson(tx, actor, lessonId);
+      : await editableLesson(tx, actor, lessonId, { change: mode === 'edit' });
   } catch (err) {
     // Say "activity", not "lesson": the caller asked for an activity.
     if (err instanceof HttpError && err.status === 404) throw notFound('That activity');

@@ -101,7 +101,7 @@ export function activitiesRouter(ctx: AppContext): Router {
     '/:id/attachments',
     async (req, _res, next) => {
       const actor = requireActor(req);
-      await activityAccess(ctx.db, actor, parseParams(idParamsSchema, req).id, 'edit');
+      await activityAccess(ctx.db, actor, parseParams(idParamsSchema, req).id, 'check');
       next();
     },
     singleFileUpload({ maxBytes: ATTACHMENT_MAX_BYTES }),

@@ -11,3 +11,4 @@ export * from './history.js';
 export * from './throttle.js';
 export * from './sharing.js';
 export * from './reuse.js';
+export * from './review.js';

@@ -38,6 +38,8 @@ export const units = pgTable(
     /** private or school. */
     visibility: text({ enum: UNIT_VISIBILITIES }).notNull().default('private'),
     copiedFromId: uuid(),
+    /** When it was last sent for review (the review queue's "waiting since"); null if never. */
+    submittedAt: timestamp({ withTimezone: true }),
     version: integer().notNull().default(1),
     createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
     updatedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
