@@ -5,15 +5,15 @@
  */
 import { Router } from 'express';
 import type { AppContext } from '../context.js';
-import { HttpError, parse } from '../http.js';
+import { parse } from '../http.js';
 import { authorize } from '../auth/policy.js';
 import { requireActor } from '../auth/session.js';
 import { coverageQuerySchema } from '../../shared/schemas/review.js';
 import { coverageMatrix } from '../review/coverage-matrix.js';
 import { coverageCsv } from '../review/coverage-csv.js';
 import { loadPrintContext } from '../pdf/load.js';
-import { PdfBusyError, renderInPool } from '../pdf/pool.js';
-import { attachment, slug } from '../pdf/names.js';
+import { renderForResponse } from '../pdf/respond.js';
+import { sendDownload, slug } from '../downloads.js';
 
 export function coverageRouter(ctx: AppContext): Router {
   const router = Router();
@@ -39,44 +39,24 @@ export function coverageRouter(ctx: AppContext): Router {
 
   router.get('/coverage.csv', async (req, res) => {
     const { matrix } = await load(req);
-    res.setHeader('Content-Type', 'text/csv; charset=utf-8');
-    res.setHeader('Content-Disposition', attachment(`coverage-${slug(matrix.framework.name)}.csv`));
-    res.send(coverageCsv(matrix));
+    sendDownload(
+      res,
+      'text/csv; charset=utf-8',
+      `coverage-${slug(matrix.framework.name)}.csv`,
+      coverageCsv(matrix),
+    );
   });
 
   router.get('/coverage.pdf', async (req, res) => {
     const { matrix, print, query } = await load(req);
-    const gone = new AbortController();
-    res.on('close', () => {
-      if (!res.writableEnded) gone.abort();
+    const bytes = await renderForResponse(res, {
+      kind: 'coverage',
+      print,
+      coverage: matrix,
+      scope: query.status === 'endorsed' ? 'Endorsed units only' : 'All units',
     });
-    let bytes: Uint8Array;
-    try {
-      bytes = await renderInPool(
-        {
-          kind: 'coverage',
-          print,
-          coverage: matrix,
-          scope: query.status === 'endorsed' ? 'Endorsed units only' : 'All units',
-        },
-        gone.signal,
-      );
-    } catch (err) {
-      if (gone.signal.aborted) return;
-      if (err instanceof PdfBusyError || (err as Error).name === 'AbortError') {
-        throw new HttpError(
-          503,
-          'printing-busy',
-          'Trayplan is busy making other files. Try again in a moment.',
-          undefined,
-          { headers: { 'Retry-After': '5' } },
-        );
-      }
-      throw err;
-    }
-    res.setHeader('Content-Type', 'application/pdf');
-    res.setHeader('Content-Disposition', attachment(`coverage-${slug(matrix.framework.name)}.pdf`));
-    res.send(Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength));
+    if (!bytes) return;
+    sendDownload(res, 'application/pdf', `coverage-${slug(matrix.framework.name)}.pdf`, bytes);
   });
 
   return router;
