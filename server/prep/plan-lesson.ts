@@ -11,13 +11,20 @@ import {
   planPartCodes,
   PrepInputError,
   type PrepInput,
+  type LessonPart,
   type PrepPlan,
 } from '../../shared/prep/index.js';
 import { loadPrepInput } from './load.js';
 
 /** A lesson as planned now: the plan with its part names, or why the engine refused it. */
 export type LessonPlan =
-  | { plannable: true; input: PrepInput; plan: PrepPlan; partNames: Record<string, string> }
+  | {
+      plannable: true;
+      input: PrepInput;
+      plan: PrepPlan;
+      partNames: Record<string, string>;
+      parts: Record<string, LessonPart>;
+    }
   | { plannable: false; input: PrepInput; problems: ApiErrorDetail[] };
 
 /**
@@ -40,10 +47,19 @@ export async function planLesson(tx: Tx, lessonId: string): Promise<LessonPlan |
     }));
     return { plannable: false, input, problems };
   }
-  const names = new Map(input.parts.map((p) => [p.code, p.name]));
+  const known = new Map(input.parts.map((p) => [p.code, p]));
   const partNames: Record<string, string> = {};
-  for (const code of planPartCodes(plan)) partNames[code] = names.get(code) ?? code;
-  return { plannable: true, input, plan, partNames };
+  const parts: Record<string, LessonPart> = {};
+  for (const code of planPartCodes(plan)) {
+    const part = known.get(code);
+    partNames[code] = part?.name ?? code;
+    parts[code] = {
+      name: part?.name ?? code,
+      colour: part?.colour || null,
+      compartment: part?.compartment || null,
+    };
+  }
+  return { plannable: true, input, plan, partNames, parts };
 }
 
 /** The one answer for a lesson the engine refuses: 422 with the engine's reasons. */

@@ -8,8 +8,8 @@ import type { LessonPrep } from '../../shared/prep/index.js';
 import { notPlannable, planLesson } from '../prep/plan-lesson.js';
 
 /**
- * `GET /:id/prep` inside the lessons router: the lesson's prep plan as stored now, with the names
- * of the parts it mentions (same policy as reading the lesson).
+ * `GET /:id/prep` inside the lessons router: the lesson's prep plan as stored now, with the name,
+ * colour and compartment of each part it mentions (same policy as reading the lesson).
  */
 export function prepRouter(ctx: AppContext): Router {
   const router = Router();
@@ -25,7 +25,11 @@ export function prepRouter(ctx: AppContext): Router {
     );
     if (!planned) throw notFound('That lesson');
     if (!planned.plannable) throw notPlannable(planned.problems);
-    const answer: LessonPrep = { ...planned.plan, partNames: planned.partNames };
+    const answer: LessonPrep = {
+      ...planned.plan,
+      partNames: planned.partNames,
+      parts: planned.parts,
+    };
     res.json(answer);
   });
   return router;

@@ -141,12 +141,23 @@ export type PrepTask = z.infer<typeof prepTaskSchema>;
 export type PrepTaskKind = (typeof TASK_KINDS)[number];
 export type PrepPlan = z.infer<typeof prepPlanSchema>;
 
+/** What a pull list shows of a part: its name, and where to find it (null when not recorded). */
+export const lessonPartSchema = z.object({
+  name: z.string(),
+  colour: z.string().nullable(),
+  compartment: z.string().nullable(),
+});
+export type LessonPart = z.infer<typeof lessonPartSchema>;
+
 /**
- * `GET /api/lessons/:id/prep`: the plan of PREP-RULES.md plus the name of every part code that
- * appears in it, so a screen can name parts without loading the kit type's whole parts list.
+ * `GET /api/lessons/:id/prep`: the plan of PREP-RULES.md plus, for every part code that appears
+ * in it, its name (`partNames`) and its name, colour and compartment (`parts`), so a screen can
+ * show a pull list without loading the kit type's whole parts list. A code the parts list no
+ * longer has is named by itself, with no colour or compartment.
  */
 export const lessonPrepSchema = prepPlanSchema.extend({
   partNames: z.record(z.string(), z.string()),
+  parts: z.record(z.string(), lessonPartSchema),
 });
 export type LessonPrep = z.infer<typeof lessonPrepSchema>;
 

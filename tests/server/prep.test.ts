@@ -41,9 +41,25 @@ before(async () => {
     name: 'Worked example kit',
     firstPosition: 0,
     parts: [
-      { code: 'RB-001', name: 'Controller', category: 'controller', qty: 1, chargeMinutes: 180 },
+      {
+        code: 'RB-001',
+        name: 'Controller',
+        colour: 'Grey',
+        category: 'controller',
+        qty: 1,
+        compartment: 'A',
+        chargeMinutes: 180,
+      },
       { code: 'RB-010', name: 'Motor', category: 'motor', qty: 2 },
-      { code: 'RB-020', name: 'Pin', category: 'connector', qty: 20, small: true },
+      {
+        code: 'RB-020',
+        name: 'Pin',
+        colour: 'Blue',
+        category: 'connector',
+        qty: 20,
+        compartment: 'C',
+        small: true,
+      },
     ],
   });
   const byLabel = await insertTubs(db, kestrel, kitTypeId, ['Tub 1', 'Tub 2', 'Tub 3']);
@@ -213,6 +229,24 @@ describe('GET /api/lessons/:id/prep', () => {
         (s: { kind: string; groups?: number }) => s.kind === 'groups' && s.groups === 2,
       ),
     );
+  });
+
+  it('names every part of the plan with its colour and compartment (issue 8)', async () => {
+    const b = await signedIn(t.app, 'teacher@kestrel-ridge.example');
+    const res = await b.get(`/api/lessons/${lessonId}/prep`);
+    assert.equal(res.status, 200, res.text);
+    // Exactly the codes the plan mentions, as the kit type's parts list records them; the motor
+    // has no colour or compartment recorded, so both are null (not '' or the code).
+    assert.deepEqual(res.body.parts, {
+      'RB-001': { name: 'Controller', colour: 'Grey', compartment: 'A' },
+      'RB-010': { name: 'Motor', colour: null, compartment: null },
+      'RB-020': { name: 'Pin', colour: 'Blue', compartment: 'C' },
+    });
+    assert.deepEqual(res.body.partNames, {
+      'RB-001': 'Controller',
+      'RB-010': 'Motor',
+      'RB-020': 'Pin',
+    });
   });
 
   it('follows the stock as stored now: recording the motor found changes the plan', async () => {

@@ -10,19 +10,7 @@ import { MatTableHarness } from '@angular/material/table/testing';
 import type { PrepPlan } from '../../../shared/prep/index';
 import { errorBody, settleReads, testProviders } from '../testing/test-providers';
 import { LessonView } from './lesson-view';
-import { workedExampleLesson, workedExampleParts, workedExamplePlan } from './worked-example';
-
-/** The invented demo kit type around the parts list. */
-const KIT_SUMMARY = {
-  id: 'kit-rover',
-  name: 'Rover Builder Tub',
-  description: '',
-  version: 1,
-  partCount: 3,
-  pieceCount: 5,
-  tubCount: 3,
-  lessonCount: 1,
-};
+import { workedExampleLesson, workedExamplePlan, workedExamplePrep } from './worked-example';
 
 describe('LessonView', () => {
   let fixture: ComponentFixture<LessonView>;
@@ -41,13 +29,8 @@ describe('LessonView', () => {
     plan = workedExamplePlan();
     fixture.detectChanges();
     backend.expectOne('/api/lessons/lesson-2').flush(workedExampleLesson());
-    backend.expectOne('/api/lessons/lesson-2/prep').flush(plan);
-    // Reads are resources: run their effects so the parts read (which needs the lesson) starts;
-    // the page is stable only once every read has its answer.
-    await settleReads();
-    backend
-      .expectOne('/api/kit-types/kit-rover')
-      .flush({ kitType: { ...KIT_SUMMARY, parts: workedExampleParts() } });
+    // The prep answer names each part with its colour and compartment: no kit type is fetched.
+    backend.expectOne('/api/lessons/lesson-2/prep').flush(workedExamplePrep(plan));
     await fixture.whenStable();
     // An author sees the lesson's share links.
     backend.expectOne('/api/lessons/lesson-2/share-links').flush({
@@ -92,7 +75,7 @@ describe('LessonView', () => {
     expect(text()).toMatch(/Group 2 is short/);
     window.dispatchEvent(new Event('focus'));
     await settleReads();
-    backend.expectOne('/api/lessons/lesson-2/prep').flush(changed);
+    backend.expectOne('/api/lessons/lesson-2/prep').flush(workedExamplePrep(changed));
     await fixture.whenStable();
     expect(text()).not.toMatch(/Group 2 is short/);
   });
@@ -170,7 +153,7 @@ describe('LessonView', () => {
     const recomputed = workedExamplePlan({
       lesson: { startsAt: '2026-07-28T11:10', endsAt: '2026-07-28T12:00', groupSize: 5 },
     });
-    backend.expectOne('/api/lessons/lesson-2/prep').flush(recomputed);
+    backend.expectOne('/api/lessons/lesson-2/prep').flush(workedExamplePrep(recomputed));
     await fixture.whenStable();
     expect(recomputed.shortfalls).toEqual([]);
     expect(text()).toContain('Every group and the class tray get all their parts.');
@@ -197,7 +180,7 @@ describe('LessonView', () => {
     expect(again.request.body).toEqual({ version: 5, groupSize: 5 });
     again.flush(workedExampleLesson({ version: 6, groupSize: 5 }));
     await settleReads();
-    backend.expectOne('/api/lessons/lesson-2/prep').flush(plan);
+    backend.expectOne('/api/lessons/lesson-2/prep').flush(workedExamplePrep(plan));
     await fixture.whenStable();
     expect(text()).not.toContain('Someone else changed this lesson');
   });

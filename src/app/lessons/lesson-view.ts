@@ -16,10 +16,7 @@ import { MatCheckboxModule } from '@angular/material/checkbox';
 import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { RouterLink } from '@angular/router';
-import { of } from 'rxjs';
-import { catchError } from 'rxjs/operators';
 import type { PrepSuggestion, PrepTask } from '../../../shared/prep/index';
-import type { Part } from '../../../shared/schemas/kits';
 import { lessonSchema, type Lesson } from '../../../shared/schemas/lessons';
 import { AppError } from '../errors/app-error';
 import { staleConflict } from '../errors/conflict';
@@ -83,18 +80,14 @@ export class LessonView {
     load: (id: string, mode) => this.api.prep(id, mode.quiet),
     equal: sameAnswer,
   });
-  /** Colours and compartments of the parts; the names come with the plan. */
-  private readonly partsRead = apiResource({
-    params: () => this.lessonRead.value()?.kitType.id,
-    load: (kitTypeId: string) => this.api.parts(kitTypeId).pipe(catchError(() => of([]))),
-  });
 
   protected readonly cautions = SAFETY_CAUTIONS;
   protected readonly cautionsDefer = CAUTIONS_DEFER;
   protected readonly lesson = computed(() => this.lessonRead.value() ?? null);
   protected readonly plan = computed(() => this.planRead.value() ?? null);
-  protected readonly parts = computed(() =>
-    partsByCode(this.partsRead.value() ?? [], this.planRead.value()?.partNames ?? {}),
+  /** Names, colours and compartments of the plan's parts, as the prep answer gives them. */
+  protected readonly parts = computed(
+    (): ReadonlyMap<string, PartInfo> => new Map(Object.entries(this.plan()?.parts ?? {})),
   );
   protected readonly loading = computed(() => this.lessonRead.loading() || this.planRead.loading());
   protected readonly loadError = computed(
@@ -236,18 +229,6 @@ export class LessonView {
       { injector: this.injector },
     );
   }
-}
-
-/** The parts list by code, named as the plan names them (a code no list has stands for itself). */
-function partsByCode(
-  parts: readonly Part[],
-  names: Readonly<Record<string, string>>,
-): ReadonlyMap<string, PartInfo> {
-  const byCode = new Map<string, PartInfo>(
-    Object.entries(names).map(([code, name]) => [code, { name }]),
-  );
-  for (const part of parts) byCode.set(part.code, { ...part, name: names[part.code] ?? part.name });
-  return byCode;
 }
 
 function fileName(lesson: Lesson | null, file: Printable): string {

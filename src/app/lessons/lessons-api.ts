@@ -1,25 +1,16 @@
 import { HttpClient } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
-import { map, type Observable } from 'rxjs';
-import type * as z from 'zod';
-import { kitTypeResponseSchema, type Part } from '../../../shared/schemas/kits';
+import type { Observable } from 'rxjs';
 import { lessonSchema, type Lesson, type LessonUpdate } from '../../../shared/schemas/lessons';
-import { lessonPrepSchema } from '../../../shared/prep/plan-schema';
+import { lessonPrepSchema, type LessonPrep } from '../../../shared/prep/plan-schema';
 import { downloadWithProgress, type DownloadEvent } from '../files/transfer';
 import { callerShowsErrors } from '../errors/error-context';
 import { parseWith } from '../errors/parse';
 
-/**
- * The prep answer (shared `lessonPrepSchema`: the plan and its parts' names). `partNames` is read
- * as optional so a plan without it still shows, its codes standing in for names.
- */
-const prepAnswerSchema = lessonPrepSchema.partial({ partNames: true });
-export type PrepAnswer = z.output<typeof prepAnswerSchema>;
-
 /** The printables a lesson offers (`/api/lessons/:id/pack.pdf`, `/labels.pdf`, `/prep.ics`). */
 export type Printable = 'pack.pdf' | 'labels.pdf' | 'prep.ics';
 
-/** A lesson, its prep plan and its kit type's parts (`/api/lessons/:id`, `/prep`). */
+/** A lesson and its prep plan with the parts it names (`/api/lessons/:id`, `/prep`). */
 @Injectable({ providedIn: 'root' })
 export class LessonsApi {
   private readonly http = inject(HttpClient);
@@ -28,22 +19,17 @@ export class LessonsApi {
     return this.http.get(`/api/lessons/${encodeURIComponent(id)}`).pipe(parseWith(lessonSchema));
   }
 
-  /** The prep plan; `quiet` for background refreshes, whose errors the caller ignores. */
-  prep(id: string, quiet = false): Observable<PrepAnswer> {
+  /**
+   * The prep plan with each part's name, colour and compartment (shared `lessonPrepSchema`);
+   * `quiet` for background refreshes, whose errors the caller ignores.
+   */
+  prep(id: string, quiet = false): Observable<LessonPrep> {
     return this.http
       .get(
         `/api/lessons/${encodeURIComponent(id)}/prep`,
         quiet ? { context: callerShowsErrors() } : {},
       )
-      .pipe(parseWith(prepAnswerSchema));
-  }
-
-  /** The parts list, for colours and compartments (the plan names its parts itself). */
-  parts(kitTypeId: string): Observable<Part[]> {
-    return this.http.get(`/api/kit-types/${encodeURIComponent(kitTypeId)}`).pipe(
-      parseWith(kitTypeResponseSchema),
-      map((body) => body.kitType.parts),
-    );
+      .pipe(parseWith(lessonPrepSchema));
   }
 
   /** The page shows a 409 (stale version) itself, with Reload and Re-apply. */

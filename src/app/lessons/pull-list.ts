@@ -21,7 +21,7 @@ export interface PullRow {
 
 /**
  * A pull list (a group's, the class tray's or the spares tray's) as a Material table. Parts are
- * named from the kit type's parts list; a code the list no longer has is shown as the code.
+ * named as the prep answer names them; a code the parts list no longer has is shown as the code.
  */
 @Component({
   selector: 'app-pull-list',

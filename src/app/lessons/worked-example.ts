@@ -1,4 +1,10 @@
-import { computePrepPlan, type PrepInput, type PrepPlan } from '../../../shared/prep/index';
+import {
+  computePrepPlan,
+  planPartCodes,
+  type LessonPrep,
+  type PrepInput,
+  type PrepPlan,
+} from '../../../shared/prep/index';
 import type { Part } from '../../../shared/schemas/kits';
 import type { Lesson } from '../../../shared/schemas/lessons';
 
@@ -65,7 +71,27 @@ export function workedExamplePlan(overrides: Partial<PrepInput> = {}): PrepPlan 
   return computePrepPlan(workedExampleInput(overrides));
 }
 
-/** The parts list as `GET /api/kit-types/:id` answers it (colours and compartments invented). */
+/**
+ * A plan as `GET /api/lessons/:id/prep` answers it: with the name, colour and compartment of each
+ * part it mentions, taken from `workedExampleParts` as the server takes them from the parts list.
+ */
+export function workedExamplePrep(plan: PrepPlan): LessonPrep {
+  const byCode = new Map(workedExampleParts().map((p) => [p.code, p]));
+  const partNames: LessonPrep['partNames'] = {};
+  const parts: LessonPrep['parts'] = {};
+  for (const code of planPartCodes(plan)) {
+    const part = byCode.get(code);
+    partNames[code] = part?.name ?? code;
+    parts[code] = {
+      name: part?.name ?? code,
+      colour: part?.colour ?? null,
+      compartment: part?.compartment ?? null,
+    };
+  }
+  return { ...plan, partNames, parts };
+}
+
+/** The parts list of the worked example's kit type (colours and compartments invented). */
 export function workedExampleParts(): Part[] {
   const base = { qty: 1, small: false, chargeMinutes: null, hasPhoto: false };
   return [
