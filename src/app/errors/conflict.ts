@@ -20,10 +20,7 @@ export function staleConflict<S extends z.ZodType>(
   codes: readonly ConflictCode[] = ['stale-version'],
 ): StaleConflict<z.output<S>> | null {
   if (!(error instanceof AppError) || error.status !== 409) return null;
-  // `stale` is the older name some kit, tub and school routes still answer with until the server
-  // side of issue 8 renames it; delete this alias once no route sends it.
-  const sent = error.code === 'stale' ? 'stale-version' : error.code;
-  const code = codes.find((c) => c === sent);
+  const code = codes.find((c) => c === error.code);
   if (!code) return null;
   const current = schema.safeParse(error.current);
   return { code, current: current.success ? current.data : null };

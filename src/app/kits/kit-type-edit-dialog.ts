@@ -82,7 +82,7 @@ export class KitTypeEditDialog {
   protected readonly base = signal(inject<KitType>(MAT_DIALOG_DATA));
   protected readonly submitting = signal(false);
   protected readonly formError = signal<string | null>(null);
-  /** The change a 409 `stale` refused, kept for Re-apply. */
+  /** The change a 409 `stale-version` refused, kept for Re-apply. */
   protected readonly stale = signal<Change | null>(null);
   protected readonly form = new FormGroup({
     name: new FormControl(this.base().name, {

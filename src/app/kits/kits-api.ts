@@ -81,7 +81,7 @@ export class KitsApi {
     );
   }
 
-  /** The dialog shows this request's errors (400, 409 `stale` or `name-taken`) itself. */
+  /** The dialog shows this request's errors (400, 409 `stale-version` or `name-taken`) itself. */
   update(id: string, body: KitTypeUpdate): Observable<KitType> {
     return this.http
       .patch(`/api/kit-types/${encodeURIComponent(id)}`, body, { context: callerShowsErrors() })
@@ -174,7 +174,7 @@ export class KitsApi {
     );
   }
 
-  /** The dialog shows this request's errors (400, 409 `stale` or `label-taken`) itself. */
+  /** The dialog shows this request's errors (400, 409 `stale-version` or `label-taken`) itself. */
   updateTub(id: string, body: TubUpdate): Observable<Tub> {
     return this.http
       .patch(`/api/tubs/${encodeURIComponent(id)}`, body, { context: callerShowsErrors() })

@@ -79,7 +79,7 @@ export class TubFormDialog {
   protected readonly formError = signal<string | null>(null);
   /** The tub as last read from the server (its version is the one sent). */
   protected readonly base = signal<TubSummary | null>(this.data.tub ?? null);
-  /** After a 409 `stale`: the change refused and what the other person changed. */
+  /** After a 409 `stale-version`: the change refused and what the other person changed. */
   protected readonly stale = signal<{ change: Change; changed: ChangedField[] } | null>(null);
 
   protected readonly form = new FormGroup({
