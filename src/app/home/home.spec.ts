@@ -4,7 +4,7 @@ import { HttpTestingController } from '@angular/common/http/testing';
 import { TestBed, type ComponentFixture } from '@angular/core/testing';
 import { MatButtonHarness } from '@angular/material/button/testing';
 import { Session } from '../auth/session';
-import { demoUser, testProviders } from '../testing/test-providers';
+import { demoUser, settleReads, testProviders } from '../testing/test-providers';
 import { addDays, mondayOf, today, type Agenda } from './agenda-api';
 import { Home } from './home';
 
@@ -65,13 +65,25 @@ describe('Home', () => {
     backend = TestBed.inject(HttpTestingController);
     fixture = TestBed.createComponent(Home);
     loader = TestbedHarnessEnvironment.loader(fixture);
+    // The week is a resource read: the page is stable only once its answer is flushed.
     fixture.detectChanges();
-    await fixture.whenStable();
+    await settleReads();
   });
 
   afterEach(() => backend.verify());
 
   const url = (week: string) => `/api/agenda?week=${week}&mine=true`;
+
+  /**
+   * Clicks a week button and answers the read it starts: the harness's click waits for the page
+   * to be stable, which a resource read is not until its answer arrives.
+   */
+  async function clickAndAnswer(button: MatButtonHarness, week: string, body: Agenda) {
+    const clicked = button.click();
+    await settleReads();
+    backend.expectOne(url(week)).flush(body);
+    await clicked;
+  }
 
   it('asks for this week and, when it is empty, links to the demo term’s first week', async () => {
     const current = mondayOf(today());
@@ -80,10 +92,11 @@ describe('Home', () => {
     expect((fixture.nativeElement as HTMLElement).textContent).toContain(
       'Nothing planned for you this week.',
     );
-    await (
-      await loader.getHarness(MatButtonHarness.with({ text: /week of 27 July 2026/ }))
-    ).click();
-    backend.expectOne(url('2026-07-27')).flush(WEEK);
+    await clickAndAnswer(
+      await loader.getHarness(MatButtonHarness.with({ text: /week of 27 July 2026/ })),
+      '2026-07-27',
+      WEEK,
+    );
     await fixture.whenStable();
     const el = fixture.nativeElement as HTMLElement;
     expect(el.querySelector('.lessons a')!.getAttribute('href')).toBe('/lessons/lesson-2');
@@ -100,20 +113,40 @@ describe('Home', () => {
     const current = mondayOf(today());
     backend.expectOne(url(current)).flush(WEEK);
     await fixture.whenStable();
-    await (
-      await loader.getHarness(MatButtonHarness.with({ selector: '[aria-label="Next week"]' }))
-    ).click();
-    backend.expectOne(url(addDays(current, 7))).flush(WEEK);
+    await clickAndAnswer(
+      await loader.getHarness(MatButtonHarness.with({ selector: '[aria-label="Next week"]' })),
+      addDays(current, 7),
+      WEEK,
+    );
     await fixture.whenStable();
     const previous = () =>
       loader.getHarness(MatButtonHarness.with({ selector: '[aria-label="Previous week"]' }));
-    await (await previous()).click();
-    backend.expectOne(url(current)).flush(WEEK);
-    await (await previous()).click();
-    backend.expectOne(url(addDays(current, -7))).flush(WEEK);
+    await clickAndAnswer(await previous(), current, WEEK);
+    await clickAndAnswer(await previous(), addDays(current, -7), WEEK);
     await fixture.whenStable();
     expect((fixture.nativeElement as HTMLElement).querySelector('h2')!.textContent).toContain(
       addDays(current, -7).slice(8, 10).replace(/^0/, ''),
     );
+  });
+
+  it('keeps the week shown while the next one loads', async () => {
+    const current = mondayOf(today());
+    backend.expectOne(url(current)).flush(WEEK);
+    await fixture.whenStable();
+    const next = await loader.getHarness(
+      MatButtonHarness.with({ selector: '[aria-label="Next week"]' }),
+    );
+    const clicked = next.click();
+    await settleReads();
+    const el = fixture.nativeElement as HTMLElement;
+    // The request for the next week is on its way: the old week stays, under a progress bar.
+    const pending = backend.expectOne(url(addDays(current, 7)));
+    expect(el.querySelector('.lessons')!.textContent).toContain('Drive train');
+    expect(el.querySelector('mat-progress-bar')).not.toBeNull();
+    pending.flush({ week: addDays(current, 7), lessons: [], tasks: [], attention: [] });
+    await clicked;
+    await fixture.whenStable();
+    expect(el.textContent).toContain('Nothing planned for you this week.');
+    expect(el.querySelector('mat-progress-bar')).toBeNull();
   });
 });

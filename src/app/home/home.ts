@@ -1,12 +1,18 @@
-import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
-import { takeUntilDestroyed, toObservable } from '@angular/core/rxjs-interop';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  computed,
+  inject,
+  linkedSignal,
+  signal,
+} from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { RouterLink } from '@angular/router';
-import { catchError, of, switchMap, tap } from 'rxjs';
 import { ROLE_LABELS } from '../../../shared/schemas/common';
 import { Session } from '../auth/session';
+import { apiResource } from '../http/resource';
 import { clockTime, dayLabel } from '../lessons/clock';
 import { AgendaApi, DEMO_WEEK, addDays, mondayOf, today, type Agenda } from './agenda-api';
 
@@ -28,26 +34,21 @@ export class Home {
 
   protected readonly demoWeek = DEMO_WEEK;
   protected readonly week = signal(mondayOf(today()));
-  protected readonly agenda = signal<Agenda | null>(null);
-  protected readonly loading = signal(true);
+  /** The week's agenda; a newer week replaces an older one's answer still on its way. */
+  private readonly read = apiResource({
+    params: () => this.week(),
+    load: (week: string) => this.api.week(week),
+  });
+  /** The week shown: the last one read, kept while the next loads (or if it fails to). */
+  protected readonly agenda = linkedSignal<Agenda | undefined, Agenda | null>({
+    source: this.read.value,
+    computation: (agenda, previous) => agenda ?? previous?.value ?? null,
+  });
+  protected readonly loading = this.read.loading;
   protected readonly empty = computed(() => {
     const a = this.agenda();
     return !!a && a.lessons.length === 0 && a.tasks.length === 0;
   });
-
-  constructor() {
-    // switchMap: clicking through weeks quickly never lets an older week's answer win.
-    toObservable(this.week)
-      .pipe(
-        tap(() => this.loading.set(true)),
-        switchMap((week) => this.api.week(week).pipe(catchError(() => of(null)))),
-        takeUntilDestroyed(),
-      )
-      .subscribe((agenda) => {
-        this.loading.set(false);
-        if (agenda) this.agenda.set(agenda);
-      });
-  }
 
   protected move(weeks: number): void {
     this.week.update((w) => addDays(w, weeks * 7));
