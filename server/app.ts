@@ -29,6 +29,7 @@ import { agendaRouter, conflictsRouter } from './routes/agenda.js';
 import { reliefRouter } from './routes/relief.js';
 import { shareLinksRouter } from './routes/share-links.js';
 import { shareRouter } from './routes/share.js';
+import { traysRouter } from './routes/trays.js';
 import { calendarFeedRouter, calendarRouter } from './routes/calendar-feed.js';
 import { reviewRouter } from './routes/review.js';
 import { coverageRouter } from './routes/coverage.js';
@@ -48,6 +49,8 @@ export interface AppOptions {
 function api(ctx: AppContext, options: AppOptions): express.Router {
   const router = express.Router();
   router.use('/health', healthRouter(ctx));
+  // A tray's token is its credential: no session, no CSRF (API.md).
+  router.use('/trays', traysRouter(ctx));
   router.use(express.json({ limit: '1mb' }));
   router.use(
     sessionMiddleware({

@@ -11,6 +11,7 @@ import { startJobs, type Jobs } from './jobs/index.js';
 import { jobDefinitions, MAIL_JOB } from './jobs/registry.js';
 import type { DevMail } from '../shared/schemas/members.js';
 import { closePdfPool } from './pdf/pool.js';
+import { closeTrayEvents } from './trays/events.js';
 import { createSessionStore } from './auth/session.js';
 import { drainable } from './drain.js';
 
@@ -74,8 +75,10 @@ export async function serve(
       (closing ??= (async () => {
         // In order: no new connections, every request already sent answered; then the workers
         // that use the pool; then the session store (its prune timer) and last the pool itself.
+        // Open event streams never finish by themselves: end them first, then drain.
+        const streams = closeTrayEvents();
         await drain({ idleGraceMs: 1000, hardLimitMs: 10_000 });
-        await Promise.all([jobs.stop(), closePdfPool()]);
+        await Promise.all([jobs.stop(), closePdfPool(), streams]);
         transport.close();
         sessionStore.close();
         await database.pool.end();

@@ -130,3 +130,20 @@ export function canSeeInReview(actor: Actor, unit: ReviewFacts): boolean {
   if (canReadUnit(actor, unit)) return true;
   return actor.role === 'admin' && sameSchool(actor, unit.schoolId) && unit.status !== 'draft';
 }
+
+/**
+ * Who runs a lesson on the day (revokes its tray codes, records its pack-away, ticks its prep
+ * tasks): its unit's authors, and the relief teacher assigned to that lesson.
+ */
+export function canRunLesson(
+  actor: Actor,
+  unit: UnitFacts,
+  lesson: { reliefTeacherId: string | null },
+): boolean {
+  if (authorsUnit(actor, unit)) return true;
+  return (
+    sameSchool(actor, unit.schoolId) &&
+    actor.role === 'relief' &&
+    lesson.reliefTeacherId === actor.id
+  );
+}

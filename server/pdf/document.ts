@@ -66,7 +66,7 @@ export function buildDocument(
         { footer },
       );
     case 'labels':
-      return labelsDocument(job.lesson, job.groupUrls, print);
+      return labelsDocument(job.lesson, job.groupUrls, job.groupCodes, print);
     case 'coverage':
       return coverageDocument(job);
   }

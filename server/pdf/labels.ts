@@ -1,7 +1,7 @@
 /**
  * Tray labels: one per group tray, ten to a sheet (two columns of five), each with the group
- * number, home tub, controller label, piece count and a QR code of the app's address of that
- * group's pull list. The sheet layouts are the common 2 × 5 label sheets (from memory): on A4,
+ * number, home tub, controller label, piece count and a QR code of that group's tray page, with
+ * the short code to type at /tray printed under it. The sheet layouts are the common 2 × 5 label sheets (from memory): on A4,
  * labels of 99.1 × 57 mm with 2.5 mm between the columns; on Letter, 4 × 2 in labels with
  * 0.5 in top margin and 3/16 in between the columns.
  */
@@ -63,10 +63,12 @@ function labelNode(
   view: PackView,
   group: PrepGroup,
   url: string,
+  code: string,
 ): ContentNode[] {
   const { lesson, print } = view;
   const short = view.plan.shortfalls.some((s) => s.group === group.number);
-  const qrSize = Math.min(grid.height - 2 * PAD - 10, 112);
+  // Room under the code for the short code a group can type instead of scanning.
+  const qrSize = Math.min(grid.height - 2 * PAD - 24, 104);
   const textWidth = grid.width - 3 * PAD - qrSize;
   const field = (label: string, value: string): ContentNode => ({
     text: [
@@ -131,7 +133,8 @@ function labelNode(
           width: qrSize,
           stack: [
             { svg: qrSvg(url), width: qrSize, height: qrSize },
-            { text: 'Scan for the pull list', fontSize: 7.5, alignment: 'center' },
+            { text: 'Scan, or type at /tray', fontSize: 7, alignment: 'center' },
+            { text: code, fontSize: 12, bold: true, alignment: 'center', characterSpacing: 1 },
           ],
         },
       ],
@@ -140,10 +143,14 @@ function labelNode(
   ];
 }
 
-/** The label sheets of a lesson; `groupUrls[i]` is encoded on group i + 1's label. */
+/**
+ * The label sheets of a lesson; `groupUrls[i]` is encoded on group i + 1's label and
+ * `groupCodes[i]` printed under it.
+ */
 export function labelsDocument(
   lesson: LessonPackModel & { plan: NonNullable<LessonPackModel['plan']> },
   groupUrls: readonly string[],
+  groupCodes: readonly string[],
   print: PrintContext,
 ): DocumentDefinition {
   const grid = labelGrid(print.paper);
@@ -153,7 +160,9 @@ export function labelsDocument(
   lesson.plan.groups.forEach((group, i) => {
     const slot = i % perSheet;
     if (slot === 0 && i > 0) content.push({ text: '', pageBreak: 'before' });
-    content.push(...labelNode(grid, grid.slots[slot]!, view, group, groupUrls[i]!));
+    content.push(
+      ...labelNode(grid, grid.slots[slot]!, view, group, groupUrls[i]!, groupCodes[i] ?? ''),
+    );
   });
   return {
     pageSize: PAGE_SIZES[print.paper],

@@ -116,7 +116,9 @@ export type RenderJob =
       kind: 'labels';
       print: PrintContext;
       lesson: LessonPackModel & { plan: PrepPlan };
-      /** The app's address of each group's pull list, in group order (encoded in the QR codes). */
+      /** The address of each group's tray page, in group order (encoded in the QR codes). */
       groupUrls: string[];
+      /** Each group's short tray code, printed under its QR code (`K7QM-3XPA`). */
+      groupCodes: string[];
     }
   | CoverageJob;

@@ -19,6 +19,7 @@ import { updateLesson } from '../planning/lesson-write.js';
 import { lessonDetail } from '../planning/lessons.js';
 import { prepRouter } from './prep.js';
 import { lessonPrintablesRouter } from './printables.js';
+import { lessonTraysRouter } from './lesson-trays.js';
 import { lessonShareLinksRouter } from './share-links.js';
 import { deleteVersion, sameMembers, stale, staleOrder, writeOrder } from '../db/versions.js';
 import {
@@ -34,6 +35,7 @@ export function lessonsRouter(ctx: AppContext): Router {
   const router = Router();
   router.use(prepRouter(ctx));
   router.use(lessonPrintablesRouter(ctx));
+  router.use(lessonTraysRouter(ctx));
   router.use('/:lessonId/share-links', lessonShareLinksRouter(ctx));
 
   router.get('/:id', async (req, res) => {

@@ -17,6 +17,7 @@ import type { LessonPackModel } from '../pdf/model.js';
 import { loadLessonPack, loadPrintContext, loadUnitPack } from '../pdf/load.js';
 import { renderForResponse } from '../pdf/respond.js';
 import { lessonFileStem, sendDownload, unitFileStem } from '../downloads.js';
+import { trayLabelCodes } from '../trays/labels.js';
 import { notPlannable } from '../prep/plan-lesson.js';
 import { prepCalendar } from '../calendar/prep-calendar.js';
 import { loadPackAttachments } from '../pdf/load-attachments.js';
@@ -45,8 +46,6 @@ function snapshotOf(ctx: AppContext): Snapshot {
 export function lessonPrintablesRouter(ctx: AppContext): Router {
   const router = Router();
   const snapshot = snapshotOf(ctx);
-  const groupUrl = (lessonId: string, group: number) =>
-    `${ctx.config.appUrl.replace(/\/+$/, '')}/lessons/${lessonId}/prep?group=${group}`;
   const lessonUrl = (lessonId: string) =>
     `${ctx.config.appUrl.replace(/\/+$/, '')}/lessons/${lessonId}/prep`;
 
@@ -84,12 +83,16 @@ export function lessonPrintablesRouter(ctx: AppContext): Router {
     const { lesson, print } = await lessonFor(req);
     const plan = lesson.plan;
     if (!plan) throw unplannable(lesson);
-    const groupUrls = plan.groups.map((g) => groupUrl(lesson.id, g.number));
+    const trays = await trayLabelCodes(
+      ctx,
+      lesson.id,
+      plan.groups.map((g) => g.number),
+    );
     const bytes = await renderForResponse(res, {
       kind: 'labels',
       print,
       lesson: { ...lesson, plan },
-      groupUrls,
+      ...trays,
     });
     if (bytes)
       sendDownload(res, 'application/pdf', `${lessonFileStem(lesson)}-tray-labels.pdf`, bytes);

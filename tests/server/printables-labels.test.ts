@@ -100,6 +100,7 @@ async function checkSheet(paper: 'A4' | 'Letter', size: [number, number]) {
       size,
     );
     const context = await renderPage(doc, n);
+    const seen = new Set<string>();
     const groups = plan.groups.slice((n - 1) * grid.slots.length, n * grid.slots.length);
     groups.forEach((group, i) => {
       const slot = grid.slots[i]!;
@@ -109,11 +110,11 @@ async function checkSheet(paper: 'A4' | 'Letter', size: [number, number]) {
       const image = context.getImageData(x!, y!, w!, h!);
       const code = jsQR(image.data, image.width, image.height);
       assert.ok(code, `${paper}: a QR code on group ${group.number}'s label`);
-      // The app's pull list of that group (the test app's appUrl is http://127.0.0.1:3999).
-      assert.equal(
-        code.data,
-        `http://127.0.0.1:3999/lessons/${lessonId}/prep?group=${group.number}`,
-      );
+      // That group's tray page (the test app's appUrl is http://127.0.0.1:3999; API.md fixes
+      // the path and a base64url token of at least 22 characters).
+      assert.match(code.data, /^http:\/\/127\.0\.0\.1:3999\/tray\/[A-Za-z0-9_-]{22,}$/);
+      assert.ok(!seen.has(code.data), 'each group has its own code');
+      seen.add(code.data);
       // The label's own text lies inside its slot (pdfjs's y runs up from the page's bottom).
       const inside = texts[n - 1]!.filter((it) => it.x >= slot.x && it.x < slot.x + grid.width)
         .filter((it) => size[1] - it.y >= slot.y && size[1] - it.y < slot.y + grid.height)

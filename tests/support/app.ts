@@ -16,6 +16,7 @@ import { startFakeSmtp, type FakeSmtp } from '../../server/mail/fake-smtp.js';
 import { DEMO_PASSWORD } from '../../server/seed/index.js';
 import { freshDatabase, type TestDatabase } from './db.js';
 import { closePdfPool } from '../../server/pdf/pool.js';
+import { closeTrayEvents } from '../../server/trays/events.js';
 
 export interface TestApp {
   app: Express;
@@ -56,6 +57,7 @@ export async function testApp(): Promise<TestApp> {
     smtp,
     outbox,
     close: async () => {
+      await closeTrayEvents();
       await outbox.stop();
       await closePdfPool();
       await smtp.close();

@@ -12,3 +12,4 @@ export * from './throttle.js';
 export * from './sharing.js';
 export * from './reuse.js';
 export * from './review.js';
+export * from './trays.js';
