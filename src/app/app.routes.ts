@@ -9,6 +9,17 @@ import { reliefLandsOnToday } from './relief/today-guard';
  * children does, so the signed-out layout placed first would swallow the home page.
  */
 export const routes: Routes = [
+  // A group's tray, opened from its label without an account (the token is the credential).
+  {
+    path: 'tray',
+    title: 'Your tray',
+    loadComponent: () => import('./tray/tray-code').then((m) => m.TrayCode),
+  },
+  {
+    path: 'tray/:token',
+    title: 'Your tray',
+    loadComponent: () => import('./tray/tray-page').then((m) => m.TrayPage),
+  },
   {
     path: '',
     canActivate: [signedInGuard],
