@@ -1,15 +1,18 @@
 /**
  * A lesson's trays for its teachers: the board of every group, its live stream (server-sent
- * events, fed between instances by LISTEN/NOTIFY), and revoking every tray code of the lesson.
+ * events, fed between instances by LISTEN/NOTIFY), revoking every tray code of the lesson, and
+ * the lesson's pack-away audit.
  */
 import { Router } from 'express';
 import type { AppContext } from '../context.js';
 import type { Tx } from '../db/client.js';
-import { parseParams } from '../http.js';
+import { parse, parseParams } from '../http.js';
+import { authorize } from '../auth/policy.js';
 import { requireActor } from '../auth/session.js';
 import { readableLesson } from '../planning/access.js';
 import { idParamsSchema } from '../../shared/schemas/common.js';
-import type { TrayBoard } from '../../shared/schemas/trays.js';
+import { packAwayCreateSchema, type TrayBoard } from '../../shared/schemas/trays.js';
+import { recordPackAway } from '../trays/pack-away.js';
 import { trayBoard } from '../trays/view.js';
 import { TrayEvents } from '../trays/events.js';
 import { revokeTrayCodes } from '../trays/tokens.js';
@@ -78,6 +81,19 @@ export function lessonTraysRouter(ctx: AppContext): Router {
     const { id } = parseParams(idParamsSchema, req);
     await snapshot((tx) => runnableLesson(tx, actor, id));
     res.json({ revoked: await revokeTrayCodes(ctx.db, id) });
+  });
+
+  /** The lesson's pack-away audit: one audit per booked tub, in one transaction. */
+  router.post('/:id/pack-away', async (req, res) => {
+    const actor = requireActor(req);
+    authorize(actor, 'tubs.audit');
+    const { id } = parseParams(idParamsSchema, req);
+    const body = parse(packAwayCreateSchema, req.body);
+    const audits = await ctx.db.transaction(async (tx) => {
+      await runnableLesson(tx, actor, id);
+      return recordPackAway(tx, actor, id, body);
+    });
+    res.status(201).json({ audits });
   });
 
   return router;
