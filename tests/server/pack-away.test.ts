@@ -55,9 +55,14 @@ describe('POST /api/lessons/:id/pack-away', () => {
     const borrow = plan.borrows[0]!;
     const home = booked[borrow.homeTub]!;
     const lender = booked[borrow.fromTub]!;
-    const line = plan.groups.find((g) => g.number === borrow.group)!.lines[0]!;
+    // Parts the home tub holds plenty of, so no count is cut at 0 or at the kit's quantity.
+    const full = await stock(home);
+    const [lostCode, foundCode] = Object.entries(full)
+      .filter(([, n]) => n >= 4)
+      .map(([code]) => code);
+    assert.ok(lostCode && foundCode);
+    const line = { partCode: lostCode };
     // Something the home tub already misses, that turns up in the lost-parts box.
-    const foundCode = plan.groups[0]!.lines[1]!.partCode;
     await t.database.db
       .insert(tubMissing)
       .values({ tubId: home, partCode: foundCode, count: 3 })
