@@ -12,6 +12,14 @@ import { errorBody, settleReads, testProviders } from '../testing/test-providers
 import { LessonView } from './lesson-view';
 import { workedExampleLesson, workedExamplePlan, workedExamplePrep } from './worked-example';
 
+/** An invented board: group 1 has everything back, group 2 misses one part. */
+const BOARD = {
+  groups: [
+    { number: 1, lines: 3, linesOut: 3, linesBack: 3, missing: [] },
+    { number: 2, lines: 3, linesOut: 3, linesBack: 2, missing: [{ partCode: 'PIN', count: 1 }] },
+  ],
+};
+
 describe('LessonView', () => {
   let fixture: ComponentFixture<LessonView>;
   let loader: HarnessLoader;
@@ -44,6 +52,9 @@ describe('LessonView', () => {
       ],
     });
     await fixture.whenStable();
+    // The pack-away board of a lesson on another day reads the trays once (no live stream).
+    backend.expectOne('/api/lessons/lesson-2/trays').flush(BOARD);
+    await fixture.whenStable();
   });
 
   it('lists the lesson’s share links and withdraws one', async () => {
@@ -57,6 +68,16 @@ describe('LessonView', () => {
     backend.expectOne('/api/lessons/lesson-2/share-links').flush({ links: [] });
     await fixture.whenStable();
     expect(text()).not.toContain('cover@relief.example');
+  });
+
+  it('shows the pack-away board: each group’s lines out and back, missing parts, groups done', () => {
+    expect(text()).toContain('1 of 2 groups packed away.');
+    const done = (fixture.nativeElement as HTMLElement).querySelectorAll('app-tray-board .done h3');
+    expect([...done].map((h) => h.textContent!.replace(/\s+/g, ' ').trim())).toEqual([
+      'Group 1 check_circle Done',
+    ]);
+    expect(text()).toContain('2 of 3 lines back');
+    expect(text()).toContain('Pack-away starts at');
   });
 
   afterEach(() => backend.verify());

@@ -32,6 +32,7 @@ import { saveBlob } from '../files/transfer';
 import { GroupBorrowsPipe } from './group-borrows';
 import { PullList, type PartInfo } from './pull-list';
 import { Timeline } from './timeline';
+import { TrayBoard } from './tray-board';
 
 type GroupsSuggestion = Extract<PrepSuggestion, { kind: 'groups' }>;
 
@@ -55,6 +56,7 @@ interface Conflict {
     Timeline,
     BuildInstructions,
     ShareLinks,
+    TrayBoard,
   ],
   templateUrl: './lesson-view.html',
   styleUrl: './lesson-view.scss',

@@ -40,6 +40,13 @@ export class TrayBoardApi {
     }).pipe(retry({ delay: (_err, attempt) => timer(backoff(attempt)), resetOnSuccess: true }));
   }
 
+  /** The board once (a lesson on another day: nothing moves on its trays now). */
+  board(lessonId: string): Observable<TrayBoard> {
+    return this.http
+      .get(`/api/lessons/${encodeURIComponent(lessonId)}/trays`)
+      .pipe(parseWith(trayBoardSchema));
+  }
+
   revoke(lessonId: string): Observable<{ revoked: number }> {
     return this.http
       .post(`/api/lessons/${encodeURIComponent(lessonId)}/trays/revoke`, {})

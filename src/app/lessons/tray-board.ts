@@ -6,7 +6,6 @@ import {
   effect,
   inject,
   input,
-  output,
   signal,
   untracked,
 } from '@angular/core';
@@ -15,10 +14,22 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatDialog } from '@angular/material/dialog';
 import { filter, switchMap, type Subscription } from 'rxjs';
 import { confirm } from '../forms/confirm-dialog';
+import type { PrepPlan } from '../../../shared/prep/index';
+import type { Lesson } from '../../../shared/schemas/lessons';
 import { groupDone, type TrayBoard as Board } from '../../../shared/schemas/trays';
+import { Session } from '../auth/session';
+import { PackAwayDialog, type PackAwayData } from './pack-away-dialog';
+import { prefillPackAway } from './pack-away';
 import { Notifier } from '../errors/notifier';
 import { clockTime } from './clock';
 import { TrayBoardApi } from './tray-board-api';
+
+/** `2026-07-28`: the browser's own date (the school's, for a teacher at school). */
+function localDay(ms: number): string {
+  const d = new Date(ms);
+  const pad = (n: number) => String(n).padStart(2, '0');
+  return `${d.getFullYear()}-${pad(d.getMonth() + 1)}-${pad(d.getDate())}`;
+}
 
 /** `mm:ss` (or `h:mm:ss`) of a number of seconds. */
 export function countdown(seconds: number): string {
@@ -45,16 +56,11 @@ export class TrayBoard {
   private readonly api = inject(TrayBoardApi);
   private readonly notifier = inject(Notifier);
   private readonly dialog = inject(MatDialog);
+  private readonly session = inject(Session);
 
-  readonly lessonId = input.required<string>();
-  /** The plan's pack-away start, ISO 8601 with the school's offset. */
-  readonly packAwayStartsAt = input<string | null>(null);
-  /** Part code → name, for the missing lists. */
-  readonly partNames = input<ReadonlyMap<string, string>>(new Map());
-  /** Whether this person runs the lesson (may replace codes and record the pack-away). */
-  readonly canRun = input(false);
-  /** Asks the lesson page to open the pack-away audit with the groups' missing counts. */
-  readonly recordPackAway = output<Board>();
+  readonly lesson = input.required<Lesson>();
+  /** The lesson's plan as shown on the page, with its part names. */
+  readonly plan = input.required<PrepPlan & { partNames?: Record<string, string> }>();
 
   protected readonly board = signal<Board | null>(null);
   protected readonly now = signal(Date.now());
@@ -63,8 +69,19 @@ export class TrayBoard {
   );
   protected readonly done = groupDone;
   protected readonly clock = clockTime;
+  private readonly partNames = computed(() => new Map(Object.entries(this.plan().partNames ?? {})));
+  /** Whether the lesson is today (the board is live only then). */
+  protected readonly today = computed(
+    () => this.lesson().startsAt.slice(0, 10) === localDay(this.now()),
+  );
+  /** The lesson's id alone, so an edit of the lesson does not open the stream again. */
+  private readonly lessonId = computed(() => this.lesson().id);
+  /** Who runs the lesson: its authors, and its relief teacher (the only relief who reads it). */
+  protected readonly canRun = computed(
+    () => this.lesson().canEdit || this.session.user()?.role === 'relief',
+  );
   protected readonly countdownText = computed(() => {
-    const at = this.packAwayStartsAt();
+    const at = this.plan().timeline.packAwayStartsAt;
     if (!at) return null;
     const left = (Date.parse(at) - this.now()) / 1000;
     return left > 0
@@ -76,9 +93,12 @@ export class TrayBoard {
     let stream: Subscription | null = null;
     effect(() => {
       const id = this.lessonId();
+      const live = this.today();
       untracked(() => {
         stream?.unsubscribe();
-        stream = this.api.live(id).subscribe((b) => this.board.set(b));
+        stream = (live ? this.api.live(id) : this.api.board(id)).subscribe((b) =>
+          this.board.set(b),
+        );
       });
     });
     const tick = setInterval(() => this.now.set(Date.now()), 1000);
@@ -103,7 +123,7 @@ export class TrayBoard {
     })
       .pipe(
         filter(Boolean),
-        switchMap(() => this.api.revoke(this.lessonId())),
+        switchMap(() => this.api.revoke(this.lesson().id)),
       )
       .subscribe((r) => {
         this.notifier.info(
@@ -113,7 +133,19 @@ export class TrayBoard {
   }
 
   protected record(): void {
-    const b = this.board();
-    if (b) this.recordPackAway.emit(b);
+    const board = this.board();
+    if (!board) return;
+    const data: PackAwayData = {
+      lessonId: this.lesson().id,
+      tubs: prefillPackAway(this.plan(), board, this.lesson().tubs),
+      partNames: this.partNames(),
+    };
+    this.dialog
+      .open<PackAwayDialog, PackAwayData, boolean>(PackAwayDialog, { data, width: '40rem' })
+      .afterClosed()
+      .pipe(filter(Boolean))
+      .subscribe(() =>
+        this.notifier.info('Pack-away recorded: the tubs’ stock and the next plans now follow it.'),
+      );
   }
 }
