@@ -19,8 +19,8 @@ import type { TrayBoard } from '../../shared/schemas/trays.js';
 import type { PrepPlan } from '../../shared/prep/index.js';
 
 let t: TestApp;
-let servers: http.Server[] = [];
-let bases: string[] = [];
+const servers: http.Server[] = [];
+const bases: string[] = [];
 let lessonId = '';
 let cookie = '';
 let tokens: string[] = [];
