@@ -69,6 +69,12 @@ export const routes: Routes = [
         loadChildren: () => import('./review/review.routes').then((m) => m.REVIEW_ROUTES),
       },
       {
+        path: 'coverage',
+        title: 'Outcome coverage',
+        canActivate: [roleGuard(AREA_ROLES.coverage)],
+        loadComponent: () => import('./review/coverage').then((m) => m.CoveragePage),
+      },
+      {
         path: 'relief',
         canActivate: [roleGuard(AREA_ROLES.relief)],
         loadChildren: () => import('./relief/relief.routes').then((m) => m.RELIEF_ROUTES),

@@ -13,15 +13,17 @@ after(async () => {
 
 /** What each role sees in the navigation (the server enforces the same rules per route). */
 const NAV: Record<string, string[]> = {
-  'teacher@kestrel-ridge.example': ['Home', 'Units', 'Kits', 'Classes'],
-  'partner@kestrel-ridge.example': ['Home', 'Units', 'Kits', 'Classes'],
-  'lead@kestrel-ridge.example': ['Home', 'Units', 'Review', 'Outcomes'],
+  'teacher@kestrel-ridge.example': ['Home', 'Units', 'Kits', 'Classes', 'Coverage'],
+  'partner@kestrel-ridge.example': ['Home', 'Units', 'Kits', 'Classes', 'Coverage'],
+  'lead@kestrel-ridge.example': ['Home', 'Units', 'Review', 'Outcomes', 'Coverage'],
   'relief@kestrel-ridge.example': ['Home', 'Relief'],
   'admin@kestrel-ridge.example': [
     'Home',
+    'Review',
     'Kits',
     'Classes',
     'Outcomes',
+    'Coverage',
     'School',
     'Members',
     'Mail outbox (development)',

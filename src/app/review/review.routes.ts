@@ -1,16 +1,15 @@
 import type { Routes } from '@angular/router';
-import { PagePlaceholder } from '../shell/page-placeholder';
 
-/** The Review area; its screens replace the placeholder. */
+/** The Review area: the queue of units waiting for a decision, and a unit's review page. */
 export const REVIEW_ROUTES: Routes = [
   {
     path: '',
     title: 'Review',
-    component: PagePlaceholder,
-    data: {
-      heading: 'Review',
-      purpose:
-        'Units sent for review, with comments and decisions, and outcome coverage by year level.',
-    },
+    loadComponent: () => import('./review-queue').then((m) => m.ReviewQueue),
+  },
+  {
+    path: 'units/:id',
+    title: 'Review a unit',
+    loadComponent: () => import('./review-unit').then((m) => m.ReviewUnitPage),
   },
 ];

@@ -6,28 +6,39 @@ function labels(role: Role, devMailAvailable = false): string[] {
 }
 
 describe('navigation by role', () => {
-  it('gives a teacher Home, Units, Kits and Classes', () => {
-    expect(labels('teacher')).toEqual(['Home', 'Units', 'Kits', 'Classes']);
+  it('gives a teacher Home, Units, Kits, Classes and Coverage', () => {
+    expect(labels('teacher')).toEqual(['Home', 'Units', 'Kits', 'Classes', 'Coverage']);
   });
 
-  it('gives a curriculum lead Home, Units, Review and Outcomes', () => {
-    expect(labels('lead')).toEqual(['Home', 'Units', 'Review', 'Outcomes']);
+  it('gives a curriculum lead Home, Units, Review, Outcomes and Coverage', () => {
+    expect(labels('lead')).toEqual(['Home', 'Units', 'Review', 'Outcomes', 'Coverage']);
   });
 
   it('gives a relief teacher Home and Relief', () => {
     expect(labels('relief')).toEqual(['Home', 'Relief']);
   });
 
-  it('gives an admin Home, Kits, Classes, Outcomes, School and Members', () => {
-    expect(labels('admin')).toEqual(['Home', 'Kits', 'Classes', 'Outcomes', 'School', 'Members']);
+  it('gives an admin Home, Review, Kits, Classes, Outcomes, Coverage, School and Members', () => {
+    expect(labels('admin')).toEqual([
+      'Home',
+      'Review',
+      'Kits',
+      'Classes',
+      'Outcomes',
+      'Coverage',
+      'School',
+      'Members',
+    ]);
   });
 
   it('adds the mail outbox for an admin only while it is available', () => {
     expect(labels('admin', true)).toEqual([
       'Home',
+      'Review',
       'Kits',
       'Classes',
       'Outcomes',
+      'Coverage',
       'School',
       'Members',
       'Mail outbox (development)',

@@ -8,6 +8,7 @@ export type Area =
   | 'classes'
   | 'outcomes'
   | 'review'
+  | 'coverage'
   | 'relief'
   | 'school'
   | 'members'
@@ -23,7 +24,8 @@ export const AREA_ROLES: Readonly<Record<Area, readonly Role[]>> = {
   kits: ['teacher', 'admin'],
   outcomes: ['admin', 'lead'],
   classes: ['teacher', 'admin'],
-  review: ['lead'],
+  review: ['lead', 'admin'],
+  coverage: ['teacher', 'lead', 'admin'],
   relief: ['relief'],
   school: ['admin'],
   members: ['admin'],
@@ -49,6 +51,7 @@ export const NAV_ITEMS: readonly NavItem[] = [
   { area: 'kits', label: 'Kits', path: '/kits', icon: 'inventory_2' },
   { area: 'classes', label: 'Classes', path: '/classes', icon: 'groups' },
   { area: 'outcomes', label: 'Outcomes', path: '/outcomes', icon: 'checklist' },
+  { area: 'coverage', label: 'Coverage', path: '/coverage', icon: 'grid_on' },
   { area: 'school', label: 'School', path: '/school', icon: 'domain' },
   { area: 'members', label: 'Members', path: '/members', icon: 'manage_accounts' },
   { area: 'devMail', label: 'Mail outbox (development)', path: '/dev/mail', icon: 'mail' },

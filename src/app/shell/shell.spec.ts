@@ -46,7 +46,7 @@ describe('Shell', () => {
 
   it("lists a teacher's areas in the navigation", async () => {
     const { loader } = await render('teacher');
-    expect(await navLabels(loader)).toEqual(['Home', 'Units', 'Kits', 'Classes']);
+    expect(await navLabels(loader)).toEqual(['Home', 'Units', 'Kits', 'Classes', 'Coverage']);
   });
 
   it('adds the mail outbox for an admin when the server has one', async () => {
@@ -55,9 +55,11 @@ describe('Shell', () => {
     await harness.fixture.whenStable();
     expect(await navLabels(loader)).toEqual([
       'Home',
+      'Review',
       'Kits',
       'Classes',
       'Outcomes',
+      'Coverage',
       'School',
       'Members',
       'Mail outbox (development)',

@@ -1,0 +1,257 @@
+import {
+  ChangeDetectionStrategy,
+  Component,
+  computed,
+  effect,
+  inject,
+  input,
+  output,
+  signal,
+} from '@angular/core';
+import { FormControl, ReactiveFormsModule } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatInputModule } from '@angular/material/input';
+import { MatSelectModule } from '@angular/material/select';
+import { MarkdownComponent } from 'ngx-markdown';
+import {
+  commentBodySchema,
+  type ReviewAction,
+  type UnitComment,
+} from '../../../shared/schemas/review';
+import { UNIT_STATUS_LABELS, unitSchema, type Unit } from '../../../shared/schemas/units';
+import { AppError } from '../errors/app-error';
+import { Notifier } from '../errors/notifier';
+import { ReviewApi } from './review-api';
+import { STEP_BUTTONS, STEP_NOTES, when } from './review-labels';
+
+/**
+ * A unit's review beside the unit: its status, the steps the signed-in person may take, and the
+ * comments in order (Markdown, sanitised by ngx-markdown's default Angular sanitiser, so a
+ * comment can never run script). With `lessonId`, only that lesson's comments, and new ones go
+ * on that lesson.
+ */
+@Component({
+  selector: 'app-review-panel',
+  imports: [
+    ReactiveFormsModule,
+    MarkdownComponent,
+    MatButtonModule,
+    MatFormFieldModule,
+    MatInputModule,
+    MatSelectModule,
+  ],
+  template: `
+    <section class="review" aria-labelledby="review-heading">
+      <h2 id="review-heading">{{ lessonId() ? 'Comments on this lesson' : 'Review' }}</h2>
+      @if (!lessonId()) {
+        <p>
+          Status: <strong class="status">{{ statusLabels[unit().status] }}</strong>
+        </p>
+        @if (unit().status === 'endorsed' && unit().canEdit) {
+          <p class="muted">Editing an endorsed unit or its lessons puts it back to draft.</p>
+        }
+      }
+
+      @if (comments().length) {
+        <ol class="comments">
+          @for (c of comments(); track c.id) {
+            <li>
+              <p class="meta">
+                <strong>{{ c.author?.name ?? 'A former member' }}</strong>
+                @if (c.step) {
+                  {{ notes[c.step] }}
+                }
+                · {{ at(c.at) }}
+                @if (!lessonId() && c.lessonId) {
+                  · on {{ lessonTitle(c.lessonId) }}
+                }
+              </p>
+              <markdown class="body" [data]="c.body" />
+            </li>
+          }
+        </ol>
+      } @else if (loaded()) {
+        <p class="muted">No comments yet.</p>
+      }
+
+      <mat-form-field class="wide">
+        <mat-label>{{ actions().length ? 'Comment or message' : 'Comment' }}</mat-label>
+        <textarea matInput rows="3" [formControl]="text"></textarea>
+        <mat-hint>Markdown: **bold**, lists with -.</mat-hint>
+        @if (textError(); as message) {
+          <mat-error>{{ message }}</mat-error>
+        }
+      </mat-form-field>
+      @if (!lessonId() && lessons().length) {
+        <mat-form-field>
+          <mat-label>About</mat-label>
+          <mat-select [formControl]="about">
+            <mat-option [value]="null">The whole unit</mat-option>
+            @for (l of lessons(); track l.id) {
+              <mat-option [value]="l.id">{{ l.title }}</mat-option>
+            }
+          </mat-select>
+        </mat-form-field>
+      }
+      @if (error(); as message) {
+        <p class="form-error" role="alert">{{ message }}</p>
+      }
+      <div class="actions">
+        <button matButton="outlined" type="button" [disabled]="busy()" (click)="addComment()">
+          Add comment
+        </button>
+        @for (a of actions(); track a) {
+          <button
+            [matButton]="a === 'reopen' ? 'outlined' : 'filled'"
+            type="button"
+            [disabled]="busy()"
+            (click)="take(a)"
+          >
+            {{ buttons[a] }}
+          </button>
+        }
+      </div>
+    </section>
+  `,
+  styles: `
+    .comments {
+      list-style: none;
+      padding: 0;
+      margin: 0 0 1rem;
+    }
+    .comments li {
+      border-inline-start: 3px solid var(--mat-sys-outline-variant);
+      padding: 0.25rem 0 0.25rem 0.75rem;
+      margin-bottom: 0.75rem;
+    }
+    .meta {
+      margin: 0;
+      font-size: 0.9rem;
+    }
+    .wide {
+      width: 100%;
+    }
+    .actions {
+      display: flex;
+      flex-wrap: wrap;
+      gap: 0.5rem;
+    }
+  `,
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class ReviewPanel {
+  private readonly api = inject(ReviewApi);
+  private readonly notifier = inject(Notifier);
+
+  readonly unit = input.required<Unit>();
+  /** The steps the signed-in person may take now. */
+  readonly actions = input<readonly ReviewAction[]>([]);
+  /** Only this lesson's comments (on the lesson page). */
+  readonly lessonId = input<string | null>(null);
+  /** Emits the unit after a step (or as it now is, after a 409). */
+  readonly changed = output<Unit>();
+
+  protected readonly statusLabels = UNIT_STATUS_LABELS;
+  protected readonly buttons = STEP_BUTTONS;
+  protected readonly notes = STEP_NOTES;
+  protected readonly all = signal<UnitComment[]>([]);
+  protected readonly loaded = signal(false);
+  protected readonly busy = signal(false);
+  protected readonly error = signal<string | null>(null);
+  protected readonly textError = signal<string | null>(null);
+  protected readonly lessons = computed(() => this.unit().lessons);
+  protected readonly comments = computed(() => {
+    const only = this.lessonId();
+    return only ? this.all().filter((c) => c.lessonId === only) : this.all();
+  });
+
+  protected readonly text = new FormControl('', { nonNullable: true });
+  protected readonly about = new FormControl<string | null>(null);
+
+  constructor() {
+    effect(() => this.load(this.unit().id));
+  }
+
+  private load(id: string): void {
+    this.api.comments(id).subscribe({
+      next: (list) => {
+        this.all.set(list);
+        this.loaded.set(true);
+      },
+      error: () => this.loaded.set(true),
+    });
+  }
+
+  protected at(iso: string): string {
+    return when(iso);
+  }
+
+  protected lessonTitle(id: string): string {
+    return this.unit().lessons.find((l) => l.id === id)?.title ?? 'a lesson';
+  }
+
+  /**
+   * The comment box's text when valid (undefined when empty and not required), else null with
+   * the schema's message shown under the box.
+   */
+  private validText(required: boolean): string | null | undefined {
+    const value = this.text.value;
+    if (!required && value.trim() === '') return undefined;
+    const result = commentBodySchema.safeParse(value);
+    if (result.success) return value;
+    const message = result.error.issues[0]?.message ?? 'Check the comment.';
+    this.textError.set(message);
+    this.text.setErrors({ invalid: message });
+    this.text.markAsTouched();
+    return null;
+  }
+
+  protected addComment(): void {
+    const body = this.validText(true);
+    if (!body) return;
+    const lessonId = this.lessonId() ?? this.about.value;
+    this.busy.set(true);
+    this.error.set(null);
+    this.api.comment(this.unit().id, body, lessonId).subscribe({
+      next: (c) => {
+        this.busy.set(false);
+        this.all.update((list) => [...list, c]);
+        this.text.reset('');
+      },
+      error: (e: unknown) => {
+        this.busy.set(false);
+        this.error.set(e instanceof Error ? e.message : 'Not saved.');
+      },
+    });
+  }
+
+  protected take(action: ReviewAction): void {
+    const comment = this.validText(action === 'request-changes');
+    if (comment === null) {
+      if (action === 'request-changes') this.error.set('Say what should change in the comment.');
+      return;
+    }
+    const unit = this.unit();
+    this.busy.set(true);
+    this.error.set(null);
+    this.api.step(unit.id, action, unit.version, comment).subscribe({
+      next: (updated) => {
+        this.busy.set(false);
+        this.text.reset('');
+        this.notifier.info(
+          `${STEP_NOTES[action][0]!.toUpperCase()}${STEP_NOTES[action].slice(1)}.`,
+        );
+        this.changed.emit(updated);
+        this.load(updated.id);
+      },
+      error: (e: unknown) => {
+        this.busy.set(false);
+        this.error.set(e instanceof Error ? e.message : 'Not saved.');
+        // A 409 carries the unit as it now is: show that, so the buttons match its status.
+        const current = e instanceof AppError ? unitSchema.safeParse(e.current) : null;
+        if (current?.success) this.changed.emit(current.data);
+      },
+    });
+  }
+}

@@ -1,0 +1,161 @@
+import { ChangeDetectionStrategy, Component, effect, inject, input, signal } from '@angular/core';
+import { MatIconModule } from '@angular/material/icon';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { RouterLink } from '@angular/router';
+import { MarkdownComponent } from 'ngx-markdown';
+import type { LessonPrepSummary, ReviewUnit } from '../../../shared/schemas/review';
+import { UNIT_STATUS_LABELS } from '../../../shared/schemas/units';
+import { dayLabel } from '../lessons/clock';
+import { yearLabel } from '../units/labels';
+import { ReviewApi } from './review-api';
+import { ReviewPanel } from './review-panel';
+
+/**
+ * `/review/units/:id`: a unit as its reviewer needs it — overview, outcomes, each lesson's prep
+ * (groups, shortfalls, pack-away) — beside the comments and the decision buttons.
+ */
+@Component({
+  selector: 'app-review-unit',
+  imports: [RouterLink, MarkdownComponent, MatIconModule, MatProgressBarModule, ReviewPanel],
+  template: `
+    <section class="page">
+      <p><a routerLink="/review">Review queue</a></p>
+      @if (!data() && !error()) {
+        <mat-progress-bar mode="indeterminate" aria-label="Loading the unit" />
+      }
+      @if (error(); as message) {
+        <p class="form-error" role="alert">{{ message }}</p>
+      }
+      @if (data(); as d) {
+        <h1>{{ d.unit.title }}</h1>
+        <p class="muted">
+          {{ year(d.unit.yearLevel) }}
+          @if (d.unit.term) {
+            · Term {{ d.unit.term }}
+          }
+          @if (d.unit.learningArea) {
+            · {{ d.unit.learningArea }}
+          }
+          · {{ statusLabels[d.unit.status] }} · by {{ d.unit.owner.name || d.unit.owner.email }}
+        </p>
+        <div class="columns">
+          <div class="main">
+            <h2>Overview</h2>
+            @if (d.unit.overview.trim()) {
+              <markdown [data]="d.unit.overview" />
+            } @else {
+              <p class="muted">No overview.</p>
+            }
+            <h2>Outcomes</h2>
+            @if (d.unit.outcomes.length) {
+              <ul>
+                @for (o of d.unit.outcomes; track o.id) {
+                  <li>
+                    <strong>{{ o.code }}</strong> {{ o.description }}
+                  </li>
+                }
+              </ul>
+            } @else {
+              <p class="muted">No outcomes chosen.</p>
+            }
+            <h2>Lessons and their prep</h2>
+            @if (d.lessons.length) {
+              <ol class="lessons">
+                @for (l of d.lessons; track l.id) {
+                  <li>
+                    <h3>{{ l.title }}</h3>
+                    <p class="muted">{{ day(l.date) }} · {{ l.className }}</p>
+                    @if (l.problems.length) {
+                      <p><mat-icon aria-hidden="true">warning</mat-icon> Cannot be planned yet:</p>
+                      <ul>
+                        @for (p of l.problems; track $index) {
+                          <li>{{ p }}</li>
+                        }
+                      </ul>
+                    } @else {
+                      <p>
+                        {{ l.groups }} groups · planned {{ l.plannedMinutes }} of
+                        {{ l.windowMinutes }} minutes · pack-away {{ l.packAwayMinutes }} minutes
+                      </p>
+                      <p>{{ shortfalls(l) }}</p>
+                    }
+                  </li>
+                }
+              </ol>
+            } @else {
+              <p class="muted">No lessons yet.</p>
+            }
+          </div>
+          <app-review-panel
+            class="side"
+            [unit]="d.unit"
+            [actions]="d.actions"
+            (changed)="reload()"
+          />
+        </div>
+      }
+    </section>
+  `,
+  styles: `
+    .columns {
+      display: grid;
+      grid-template-columns: minmax(0, 3fr) minmax(16rem, 2fr);
+      gap: 1.5rem;
+    }
+    @media (max-width: 900px) {
+      .columns {
+        grid-template-columns: 1fr;
+      }
+    }
+    .lessons h3 {
+      margin: 0.75rem 0 0;
+    }
+    .lessons p {
+      margin: 0.25rem 0;
+    }
+    mat-icon {
+      vertical-align: middle;
+    }
+  `,
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class ReviewUnitPage {
+  private readonly api = inject(ReviewApi);
+
+  /** Route parameter `:id`. */
+  readonly id = input.required<string>();
+
+  protected readonly statusLabels = UNIT_STATUS_LABELS;
+  protected readonly data = signal<ReviewUnit | null>(null);
+  protected readonly error = signal<string | null>(null);
+
+  constructor() {
+    effect(() => this.load(this.id()));
+  }
+
+  private load(id: string): void {
+    this.error.set(null);
+    this.api.unit(id).subscribe({
+      next: (d) => this.data.set(d),
+      error: (e: unknown) => this.error.set(e instanceof Error ? e.message : 'Not loaded.'),
+    });
+  }
+
+  /** After a step the buttons change with the status: read the unit again. */
+  protected reload(): void {
+    this.load(this.id());
+  }
+
+  protected year(level: number): string {
+    return yearLabel(level);
+  }
+
+  protected day(date: string): string {
+    return dayLabel(`${date}T00:00`, false);
+  }
+
+  protected shortfalls(l: LessonPrepSummary): string {
+    if (l.shortfalls.length === 0) return 'No shortfalls: every group’s parts are in the tubs.';
+    return `Short: ${l.shortfalls.map((s) => `${s.missing} × ${s.name}`).join(', ')}.`;
+  }
+}
