@@ -1,4 +1,6 @@
 import type { ReviewAction } from '../../../shared/schemas/review';
+import type { Role } from '../../../shared/schemas/common';
+import type { Unit } from '../../../shared/schemas/units';
 
 /** The words of each step's button. */
 export const STEP_BUTTONS: Record<ReviewAction, string> = {
@@ -25,4 +27,22 @@ export function when(iso: string): string {
     hour: 'numeric',
     minute: '2-digit',
   }).format(new Date(iso));
+}
+
+/**
+ * The steps the screen offers on a unit (API.md, "Review and coverage"): its authors send it
+ * for review, leads and admins decide, its owner or a reviewer reopens it once endorsed. Only
+ * a mirror: the server decides again on every step.
+ */
+export function reviewStepsFor(unit: Unit, role: Role): ReviewAction[] {
+  const reviewer = role === 'lead' || role === 'admin';
+  switch (unit.status) {
+    case 'draft':
+    case 'changes-requested':
+      return unit.canEdit ? ['submit'] : [];
+    case 'in-review':
+      return reviewer ? ['request-changes', 'endorse'] : [];
+    case 'endorsed':
+      return unit.isOwner || reviewer ? ['reopen'] : [];
+  }
 }

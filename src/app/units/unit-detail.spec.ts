@@ -7,7 +7,8 @@ import { MatProgressBarHarness } from '@angular/material/progress-bar/testing';
 import { MatSnackBarHarness } from '@angular/material/snack-bar/testing';
 import { provideMarkdown } from 'ngx-markdown';
 import type { Unit } from '../../../shared/schemas/units';
-import { errorBody, settleReads, testProviders } from '../testing/test-providers';
+import { Session } from '../auth/session';
+import { demoUser, errorBody, settleReads, testProviders } from '../testing/test-providers';
 import { UnitDetail } from './unit-detail';
 
 /** An invented unit of the invented demo school. */
@@ -90,6 +91,7 @@ describe('UnitDetail', () => {
     await settleReads();
     backend.expectOne('/api/units/u-1/history').flush(HISTORY);
     await fixture.whenStable();
+    backend.expectOne('/api/units/u-1/comments').flush({ comments: [] });
     await new Promise((resolve) => setTimeout(resolve, 50));
     fixture.detectChanges();
     const el = fixture.nativeElement as HTMLElement;
@@ -153,6 +155,35 @@ describe('UnitDetail', () => {
     backend.verify();
   });
 
+  it('offers its author "Send for review" beside the status and the comments', async () => {
+    TestBed.configureTestingModule({ providers: [testProviders(), provideMarkdown()] });
+    TestBed.inject(Session).update(demoUser('teacher', { id: 'user-teacher' }));
+    const backend = TestBed.inject(HttpTestingController);
+    const fixture = TestBed.createComponent(UnitDetail);
+    fixture.componentRef.setInput('id', 'u-1');
+    fixture.detectChanges();
+    backend.expectOne('/api/units/u-1').flush(UNIT);
+    await fixture.whenStable();
+    backend.expectOne('/api/units/u-1/comments').flush({ comments: [] });
+    await fixture.whenStable();
+    const loader = TestbedHarnessEnvironment.loader(fixture);
+    const send = await loader.getHarness(MatButtonHarness.with({ text: 'Send for review' }));
+    await send.click();
+    const req = backend.expectOne('/api/units/u-1/review');
+    expect(req.request.body).toEqual({ action: 'submit', version: 2 });
+    req.flush({ ...UNIT, status: 'in-review', version: 3 });
+    backend.expectOne('/api/units/u-1/comments').flush({ comments: [] });
+    await fixture.whenStable();
+    expect((fixture.nativeElement as HTMLElement).querySelector('.status')?.textContent).toBe(
+      'In review',
+    );
+    // In review, the author has no step left to take.
+    expect(
+      await loader.getAllHarnesses(MatButtonHarness.with({ text: 'Send for review' })),
+    ).toEqual([]);
+    backend.verify();
+  });
+
   describe('printables', () => {
     let fixture: ComponentFixture<UnitDetail>;
     let loader: HarnessLoader;
@@ -170,6 +201,7 @@ describe('UnitDetail', () => {
       await settleReads();
       backend.expectOne('/api/units/u-1/history').flush(HISTORY);
       await fixture.whenStable();
+      backend.expectOne('/api/units/u-1/comments').flush({ comments: [] });
       // saveBlob hands the file to the browser through a link's `download` name: watch that link.
       saved = [];
       let lastBlob: Blob | null = null;

@@ -8,6 +8,8 @@ import { UNIT_STATUS_LABELS, type Unit } from '../../../shared/schemas/units';
 import { apiResource } from '../http/resource';
 import { clockTime, dayLabel } from '../lessons/clock';
 import { saveBlob } from '../files/transfer';
+import { ReviewPanel } from '../review/review-panel';
+import { reviewStepsFor } from '../review/review-labels';
 import { yearLabel } from './labels';
 import { UnitsApi, type UnitPrintable } from './units-api';
 import { CopyDialog, copyDialogData } from './copy-dialog';
@@ -32,6 +34,7 @@ import { MatDialog } from '@angular/material/dialog';
     UnitHistory,
     UnitProvenance,
     UpstreamPanel,
+    ReviewPanel,
   ],
   template: `
     <section class="page">
@@ -148,6 +151,7 @@ import { MatDialog } from '@angular/material/dialog';
           <p class="muted">No lessons yet.</p>
         }
 
+        <app-review-panel [unit]="unit" [actions]="steps()" (changed)="read.set($event)" />
         <app-unit-history [unitId]="unit.id" />
       }
     </section>
@@ -177,17 +181,24 @@ export class UnitDetail {
   readonly id = input.required<string>();
 
   protected readonly statusLabels = UNIT_STATUS_LABELS;
+  private readonly role = computed(() => this.session.user()?.role ?? null);
   /** Teachers and leads copy a unit they read into their own (the server has the last word). */
   protected readonly canCopy = computed(() => {
-    const role = this.session.user()?.role;
+    const role = this.role();
     return role === 'teacher' || role === 'lead';
   });
-  private readonly read = apiResource({
+  protected readonly read = apiResource({
     params: () => this.id(),
     load: (id: string) => this.api.get(id),
   });
   protected readonly unit = computed(() => this.read.value() ?? null);
   protected readonly error = this.read.error;
+  /** The review steps the signed-in person may take (the server decides again). */
+  protected readonly steps = computed(() => {
+    const unit = this.unit();
+    const role = this.role();
+    return unit && role ? reviewStepsFor(unit, role) : [];
+  });
   /** The printable being made, and how far its download is (null: size unknown). */
   protected readonly download = signal<{ file: UnitPrintable; fraction: number | null } | null>(
     null,
