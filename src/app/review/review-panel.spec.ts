@@ -110,7 +110,6 @@ describe('ReviewPanel', () => {
       comment: 'Ready for a look.',
     });
     req.flush({ ...UNIT, status: 'in-review', version: 6 });
-    backend.expectOne('/api/units/u-1/comments').flush({ comments: COMMENTS });
     await fixture.whenStable();
     expect(changed.map((u) => u.status)).toEqual(['in-review']);
   });

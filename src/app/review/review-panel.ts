@@ -242,8 +242,8 @@ export class ReviewPanel {
         this.notifier.info(
           `${STEP_NOTES[action][0]!.toUpperCase()}${STEP_NOTES[action].slice(1)}.`,
         );
+        // The parent shows the new unit; the comments reload with it (the effect above).
         this.changed.emit(updated);
-        this.load(updated.id);
       },
       error: (e: unknown) => {
         this.busy.set(false);

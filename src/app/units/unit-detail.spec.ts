@@ -172,6 +172,7 @@ describe('UnitDetail', () => {
     const req = backend.expectOne('/api/units/u-1/review');
     expect(req.request.body).toEqual({ action: 'submit', version: 2 });
     req.flush({ ...UNIT, status: 'in-review', version: 3 });
+    await fixture.whenStable();
     backend.expectOne('/api/units/u-1/comments').flush({ comments: [] });
     await fixture.whenStable();
     expect((fixture.nativeElement as HTMLElement).querySelector('.status')?.textContent).toBe(
