@@ -24,6 +24,7 @@ const UNIT: Unit = {
   canEdit: true,
   overview: '',
   copiedFromId: null,
+  basedOn: null,
   createdAt: '2026-07-01T09:00:00+09:30',
   coauthors: [],
   outcomes: [],

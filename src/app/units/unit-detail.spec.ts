@@ -142,6 +142,7 @@ describe('UnitDetail', () => {
       changed: true,
       changes: [{ summary: 'added lesson Winch (2026-09-08 11:10–12:00)' }],
     });
+    backend.expectOne('/api/units/u-1/comments').flush({ comments: [] });
     await fixture.whenStable();
     fixture.detectChanges();
     const el = fixture.nativeElement as HTMLElement;
@@ -163,7 +164,8 @@ describe('UnitDetail', () => {
     fixture.componentRef.setInput('id', 'u-1');
     fixture.detectChanges();
     backend.expectOne('/api/units/u-1').flush(UNIT);
-    await fixture.whenStable();
+    await settleReads();
+    backend.expectOne('/api/units/u-1/history').flush({ events: [] });
     backend.expectOne('/api/units/u-1/comments').flush({ comments: [] });
     await fixture.whenStable();
     const loader = TestbedHarnessEnvironment.loader(fixture);
