@@ -8,6 +8,7 @@ import assert from 'node:assert/strict';
 import { and, eq } from 'drizzle-orm';
 import jsQRModule from 'jsqr';
 import { getDocument, type PDFDocumentProxy } from 'pdfjs-dist/legacy/build/pdf.mjs';
+import { renderPage, SCALE } from '../support/pdf-pixels.js';
 import { signedIn, testApp, type Browser, type TestApp } from '../support/app.js';
 import { download } from '../support/planning.js';
 import { lessons, schools, units } from '../../server/db/schema/index.js';
@@ -17,33 +18,6 @@ import type { PrepPlan } from '../../shared/prep/index.js';
 
 // jsqr is CommonJS: under NodeNext its default import is module.exports, whose `default` is jsQR.
 const jsQR = jsQRModule.default;
-
-/** Points to pixels: 3 × 72 = 216 dpi, plenty for modules of about 0.9 mm. */
-const SCALE = 3;
-
-interface Canvas2d {
-  getImageData(
-    x: number,
-    y: number,
-    w: number,
-    h: number,
-  ): { data: Uint8ClampedArray; width: number; height: number };
-}
-
-/** Renders a page with pdfjs's own Node canvas (its optional @napi-rs/canvas dependency). */
-async function renderPage(doc: PDFDocumentProxy, n: number): Promise<Canvas2d> {
-  const page = await doc.getPage(n);
-  const viewport = page.getViewport({ scale: SCALE });
-  // pdfjs-dist exposes the canvas factory it uses in Node; no canvas package of our own is needed.
-  const factory = (
-    doc as unknown as {
-      canvasFactory: { create(w: number, h: number): { canvas: unknown; context: Canvas2d } };
-    }
-  ).canvasFactory;
-  const { canvas, context } = factory.create(viewport.width, viewport.height);
-  await page.render({ canvasContext: context as never, canvas: canvas as never, viewport }).promise;
-  return context;
-}
 
 async function pageTexts(
   doc: PDFDocumentProxy,

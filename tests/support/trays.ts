@@ -5,7 +5,8 @@
 import { and, eq } from 'drizzle-orm';
 import { DateTime } from 'luxon';
 import jsQRModule from 'jsqr';
-import { getDocument, type PDFDocumentProxy } from 'pdfjs-dist/legacy/build/pdf.mjs';
+import { getDocument } from 'pdfjs-dist/legacy/build/pdf.mjs';
+import { renderPage, SCALE } from './pdf-pixels.js';
 import type { Db } from '../../server/db/client.js';
 import { lessons, units } from '../../server/db/schema/index.js';
 import { labelGrid } from '../../server/pdf/labels.js';
@@ -14,7 +15,6 @@ import { download } from './planning.js';
 
 // jsqr is CommonJS: under NodeNext its default import is module.exports, whose `default` is jsQR.
 const jsQR = jsQRModule.default;
-const SCALE = 3;
 
 /** The demo school's timezone (the seed's). */
 export const SCHOOL_ZONE = 'Australia/Adelaide';
@@ -40,28 +40,6 @@ export async function moveLesson(db: Db, lessonId: string, days: number): Promis
   const endsAt = `${day} ${row!.endsAt.slice(11)}`;
   await db.update(lessons).set({ startsAt, endsAt }).where(eq(lessons.id, lessonId));
   return day;
-}
-
-interface Canvas2d {
-  getImageData(
-    x: number,
-    y: number,
-    w: number,
-    h: number,
-  ): { data: Uint8ClampedArray; width: number; height: number };
-}
-
-async function renderPage(doc: PDFDocumentProxy, n: number): Promise<Canvas2d> {
-  const page = await doc.getPage(n);
-  const viewport = page.getViewport({ scale: SCALE });
-  const factory = (
-    doc as unknown as {
-      canvasFactory: { create(w: number, h: number): { canvas: unknown; context: Canvas2d } };
-    }
-  ).canvasFactory;
-  const { canvas, context } = factory.create(viewport.width, viewport.height);
-  await page.render({ canvasContext: context as never, canvas: canvas as never, viewport }).promise;
-  return context;
 }
 
 /** One label as printed: the QR code's text and the words inside the label. */
