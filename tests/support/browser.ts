@@ -52,6 +52,9 @@ export async function seriousViolations(page: Page): Promise<AxeViolation[]> {
     const axe = (
       window as unknown as { axe: { run: (ctx?: unknown, opts?: unknown) => Promise<unknown> } }
     ).axe;
+    // axe tells an icon font's ligature ("chevron_left") from visible text only once the font
+    // has loaded: run it on the page as the person sees it.
+    await document.fonts.ready;
     return axe.run(document, { resultTypes: ['violations'] });
   })) as { violations: AxeViolation[] };
   return result.violations.filter((v) => v.impact === 'serious' || v.impact === 'critical');
