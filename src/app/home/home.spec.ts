@@ -150,3 +150,48 @@ describe('Home', () => {
     expect(el.querySelector('mat-progress-bar')).toBeNull();
   });
 });
+
+describe('Home for a curriculum lead', () => {
+  it('puts what waits for review and the term’s gaps above the week', async () => {
+    TestBed.configureTestingModule({ providers: testProviders() });
+    TestBed.inject(Session).update(demoUser('lead'));
+    const backend = TestBed.inject(HttpTestingController);
+    const fixture = TestBed.createComponent(Home);
+    fixture.detectChanges();
+    await settleReads();
+    const current = mondayOf(today());
+    backend.expectOne(`/api/agenda?week=${current}&mine=true`).flush(WEEK);
+    backend.expectOne('/api/review/summary').flush({
+      waiting: 1,
+      oldest: [
+        {
+          id: 'unit-gates',
+          title: 'Smart Gates',
+          yearLevel: 6,
+          term: 3,
+          status: 'in-review',
+          owner: { id: 'user-teacher', name: 'Jordan Pell' },
+          lessonCount: 4,
+          waitingSince: '2026-07-20T09:00:00+09:30',
+          daysWaiting: 2,
+          version: 3,
+        },
+      ],
+      term: { number: 3, name: 'Term 3', year: 2026 },
+      frameworks: [{ id: 'fw', name: 'Digital Technologies', outcomes: 10, gaps: 4 }],
+    });
+    await settleReads();
+    await fixture.whenStable();
+    const el = fixture.nativeElement as HTMLElement;
+    const card = el.querySelector('app-review-summary')!;
+    expect(card.textContent).toContain('1 unit waits for your review');
+    expect(card.querySelector('a')!.getAttribute('href')).toBe('/review/units/unit-gates');
+    expect(card.textContent!.replace(/\s+/g, ' ')).toContain(
+      '4 of 10 outcomes of Digital Technologies have no unit in term 3 2026',
+    );
+    // The card comes before the week, so a lead sees it first.
+    const week = el.querySelector('.week-nav')!;
+    expect(card.compareDocumentPosition(week) & Node.DOCUMENT_POSITION_FOLLOWING).toBeTruthy();
+    backend.verify();
+  });
+});

@@ -14,12 +14,13 @@ import { ROLE_LABELS } from '../../../shared/schemas/common';
 import { Session } from '../auth/session';
 import { apiResource } from '../http/resource';
 import { clockTime, dayLabel } from '../lessons/clock';
+import { ReviewSummaryCard } from '../review/review-summary';
 import { AgendaApi, DEMO_WEEK, addDays, mondayOf, today, type Agenda } from './agenda-api';
 
 /** The first page after sign-in: the signed-in person's week of lessons and prep. */
 @Component({
   selector: 'app-home',
-  imports: [RouterLink, MatButtonModule, MatIconModule, MatProgressBarModule],
+  imports: [RouterLink, MatButtonModule, MatIconModule, MatProgressBarModule, ReviewSummaryCard],
   templateUrl: './home.html',
   styleUrl: './home.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -30,6 +31,11 @@ export class Home {
   protected readonly roleLabel = computed(() => {
     const user = this.user();
     return user ? ROLE_LABELS[user.role] : '';
+  });
+  /** Leads and admins review units: what waits for them and the term's gaps come first. */
+  protected readonly reviews = computed(() => {
+    const role = this.user()?.role;
+    return role === 'lead' || role === 'admin';
   });
 
   protected readonly demoWeek = DEMO_WEEK;

@@ -1,8 +1,7 @@
-import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
-import { takeUntilDestroyed } from '@angular/core/rxjs-interop';
+import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { RouterLink } from '@angular/router';
-import type { ReviewSummary } from '../../../shared/schemas/review';
+import { apiResource } from '../http/resource';
 import { yearLabel } from '../units/labels';
 import { ReviewApi } from './review-api';
 
@@ -18,8 +17,14 @@ import { ReviewApi } from './review-api';
       <h2 id="review-summary-heading">Review and coverage</h2>
       @if (summary(); as s) {
         <p>
-          <strong>{{ s.waiting }}</strong>
-          {{ s.waiting === 1 ? 'unit waits' : 'units wait' }} for your review.
+          @if (s.waiting === 0) {
+            No unit waits for your review.
+          } @else {
+            <strong>{{ s.waiting }}</strong>
+            {{ s.waiting === 1 ? 'unit waits' : 'units wait' }} for your review{{
+              s.oldest.length < s.waiting ? '; the longest waiting:' : ':'
+            }}
+          }
         </p>
         @if (s.oldest.length) {
           <ul>
@@ -27,7 +32,7 @@ import { ReviewApi } from './review-api';
               <li>
                 <a [routerLink]="['/review/units', u.id]">{{ u.title }}</a>
                 <span class="muted">
-                  · {{ year(u.yearLevel) }} · {{ u.owner.name }} ·
+                  · {{ year(u.yearLevel) }} · {{ u.owner.name }} · waiting
                   {{ u.daysWaiting === 1 ? '1 day' : u.daysWaiting + ' days' }}
                 </span>
               </li>
@@ -45,8 +50,8 @@ import { ReviewApi } from './review-api';
           <a matButton="filled" routerLink="/review">Open the review queue</a>
           <a matButton="outlined" routerLink="/coverage">See coverage</a>
         </div>
-      } @else if (failed()) {
-        <p class="muted">The review summary could not be loaded.</p>
+      } @else if (failed(); as message) {
+        <p class="form-error" role="alert">{{ message }}</p>
       } @else {
         <p class="muted">Loading…</p>
       }
@@ -68,18 +73,10 @@ import { ReviewApi } from './review-api';
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 export class ReviewSummaryCard {
-  protected readonly summary = signal<ReviewSummary | null>(null);
-  protected readonly failed = signal(false);
-
-  constructor() {
-    inject(ReviewApi)
-      .summary()
-      .pipe(takeUntilDestroyed())
-      .subscribe({
-        next: (s) => this.summary.set(s),
-        error: () => this.failed.set(true),
-      });
-  }
+  private readonly api = inject(ReviewApi);
+  private readonly read = apiResource({ load: () => this.api.summary() });
+  protected readonly summary = this.read.value;
+  protected readonly failed = this.read.error;
 
   protected year(level: number): string {
     return yearLabel(level);
