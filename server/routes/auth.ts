@@ -1,5 +1,5 @@
 import { Router, type Request, type Response } from 'express';
-import { and, eq, gt, isNull, sql } from 'drizzle-orm';
+import { and, eq, gt, isNull, ne, sql } from 'drizzle-orm';
 import type { AppContext } from '../context.js';
 import { passwordResets, users } from '../db/schema/index.js';
 import { HttpError, parse } from '../http.js';
@@ -58,7 +58,12 @@ export function authRouter(ctx: AppContext): Router {
     const body = parse(signInSchema, req.body);
     const attempt = await reserveSignIn(ctx.db, signInKeys(body.email, req.ip ?? ''));
     if (attempt.delayMs) await sleep(attempt.delayMs);
-    const [user] = await ctx.db.select().from(users).where(eq(users.email, body.email));
+    // The joined account of the address (invitations may wait in other schools; they have no
+    // password, so they would only cost the dummy hash below anyway).
+    const [user] = await ctx.db
+      .select()
+      .from(users)
+      .where(and(eq(users.email, body.email), ne(users.status, 'invited')));
     // An unknown address costs the same hash as a known one, and answers the same 401.
     // An invited person without a password yet costs the same hash too, so timing cannot tell
     // "invited, not joined" from "has an account".
@@ -94,8 +99,11 @@ export function authRouter(ctx: AppContext): Router {
   router.post('/password-reset', async (req, res) => {
     const { email } = parse(resetRequestSchema, req.body);
     await countRequest(ctx.db, `reset:${email}`, RESET_REQUESTS_PER_WINDOW);
-    const [user] = await ctx.db.select().from(users).where(eq(users.email, email));
-    if (user && user.status === 'active') {
+    const [user] = await ctx.db
+      .select()
+      .from(users)
+      .where(and(eq(users.email, email), eq(users.status, 'active')));
+    if (user) {
       const { token, hash } = newToken();
       await ctx.db.transaction(async (tx) => {
         await tx.insert(passwordResets).values({

@@ -9,6 +9,7 @@ import { requireActor } from '../auth/session.js';
 import { activeAdminCount, endSessionsOf } from '../auth/users.js';
 import { INVITATION_DAYS, newToken } from '../auth/tokens.js';
 import { enqueueMail } from '../mail/outbox.js';
+import { isUniqueViolation } from '../db/errors.js';
 import { invitationMail } from '../mail/messages.js';
 import { idParamsSchema, type Role } from '../../shared/schemas/common.js';
 import { inviteSchema, memberUpdateSchema, type Member } from '../../shared/schemas/members.js';
@@ -108,26 +109,46 @@ export function membersRouter(ctx: AppContext): Router {
   router.post('/invitations', async (req, res) => {
     const actor = requireActor(req);
     const body = parse(inviteSchema, req.body);
-    const [existing] = await ctx.db.select().from(users).where(eq(users.email, body.email));
+    // Only this school's people are looked at: whether the address belongs to another school is
+    // not the admin's to learn (OWASP Authentication Cheat Sheet, account enumeration). Such an
+    // invitation is sent like any other; its link tells the invitee, who owns the address.
+    const [existing] = await ctx.db
+      .select()
+      .from(users)
+      .where(and(eq(users.email, body.email), eq(users.schoolId, actor.schoolId)));
     if (existing) {
-      const ours = existing.schoolId === actor.schoolId && existing.status === 'invited';
+      const invited = existing.status === 'invited';
       throw new HttpError(
         409,
-        ours ? 'already-invited' : 'email-taken',
-        ours
+        invited ? 'already-invited' : 'already-member',
+        invited
           ? 'This address already has an invitation. Use "Resend invitation" to send it again.'
-          : 'This e-mail address already has a Trayplan account.',
-        [{ path: 'email', message: ours ? 'Already invited.' : 'Already has an account.' }],
+          : 'This address belongs to a member of your school already.',
+        [{ path: 'email', message: invited ? 'Already invited.' : 'Already a member.' }],
       );
     }
-    const member = await ctx.db.transaction(async (tx) => {
-      const [user] = await tx
-        .insert(users)
-        .values({ schoolId: actor.schoolId, email: body.email, role: body.role, status: 'invited' })
-        .returning();
-      await sendInvitation(ctx, tx, actor, user!.id, body.email, body.role);
-      return oneMember(tx, actor, user!.id);
-    });
+    const member = await ctx.db
+      .transaction(async (tx) => {
+        const [user] = await tx
+          .insert(users)
+          .values({
+            schoolId: actor.schoolId,
+            email: body.email,
+            role: body.role,
+            status: 'invited',
+          })
+          .returning();
+        await sendInvitation(ctx, tx, actor, user!.id, body.email, body.role);
+        return oneMember(tx, actor, user!.id);
+      })
+      .catch((err: unknown) => {
+        // Two admins inviting the same address at once: the second finds the first's invitation.
+        if (isUniqueViolation(err))
+          throw new HttpError(409, 'already-invited', 'This address was invited a moment ago.', [
+            { path: 'email', message: 'Already invited.' },
+          ]);
+        throw err;
+      });
     ctx.kickMail();
     res.status(201).json({ member });
   });

@@ -1,6 +1,6 @@
 import { after, before, describe, it } from 'node:test';
 import assert from 'node:assert/strict';
-import { eq } from 'drizzle-orm';
+import { and, eq } from 'drizzle-orm';
 import { Browser, signedIn, testApp, type TestApp } from '../support/app.js';
 import { invitations, outbox, users } from '../../server/db/schema/index.js';
 
@@ -143,13 +143,14 @@ describe('invitations', () => {
     assert.equal(again.status, 404, 'the link works once');
   });
 
-  it('refuses an address that already has an account (409) and bad input (400, nothing stored)', async () => {
+  it('refuses a member of this school (409) and bad input (400, nothing stored)', async () => {
     const admin = await signedIn(t.app, ADMIN);
-    assert.equal(
-      (await admin.post('/api/members/invitations', { email: OTHER_ADMIN, role: 'teacher' }))
-        .status,
-      409,
-    );
+    const member = await admin.post('/api/members/invitations', {
+      email: 'teacher@kestrel-ridge.example',
+      role: 'teacher',
+    });
+    assert.equal(member.status, 409);
+    assert.equal(member.body.error.code, 'already-member');
     const before = (await t.database.db.select().from(users)).length;
     const bad = await admin.post('/api/members/invitations', { email: 'nope', role: 'owner' });
     assert.equal(bad.status, 400);
@@ -158,6 +159,88 @@ describe('invitations', () => {
       'role',
     ]);
     assert.equal((await t.database.db.select().from(users)).length, before);
+  });
+
+  // OWASP Authentication Cheat Sheet, "Authentication and Error Messages": a response must not
+  // tell whether an account exists. The admin of one school must not learn that an address
+  // belongs to another school: its invitation is answered exactly like a fresh address's.
+  it("does not tell an admin that an address belongs to another school; the invitee's link does", async () => {
+    const admin = await signedIn(t.app, ADMIN);
+    const fresh = await admin.post('/api/members/invitations', {
+      email: 'fresh.person@elsewhere.example',
+      role: 'teacher',
+    });
+    const taken = await admin.post('/api/members/invitations', {
+      email: OTHER_ADMIN,
+      role: 'teacher',
+    });
+    assert.equal(taken.status, fresh.status);
+    assert.equal(taken.status, 201);
+    assert.deepEqual(Object.keys(taken.body.member).sort(), Object.keys(fresh.body.member).sort());
+    assert.equal(taken.body.member.status, fresh.body.member.status);
+
+    // The person who owns the address learns it from the link, and nothing of theirs changes.
+    const link = await linkSentTo(OTHER_ADMIN);
+    const token = new URL(link).pathname.split('/').pop()!;
+    const invitee = new Browser(t.app);
+    const info = await invitee.get(`/api/invitations/${token}`);
+    assert.equal(info.status, 409);
+    assert.equal(info.body.error.code, 'invitation-address-taken');
+    const accept = await invitee.post(`/api/invitations/${token}/accept`, {
+      name: 'Someone',
+      password: 'a brand new passphrase 7',
+    });
+    assert.equal(accept.status, 409);
+    const [own] = await t.database.db
+      .select()
+      .from(users)
+      .where(and(eq(users.email, OTHER_ADMIN), eq(users.status, 'active')));
+    assert.ok(own, 'the account at the other school is untouched');
+    const other = await signedIn(t.app, OTHER_ADMIN);
+    assert.equal((await other.get('/api/auth/me')).body.user.email, OTHER_ADMIN);
+  });
+
+  it('of two schools inviting one address, only one invitation can be accepted, even at once', async () => {
+    const first = await signedIn(t.app, ADMIN);
+    const second = await signedIn(t.app, OTHER_ADMIN);
+    const email = 'two.schools@elsewhere.example';
+    assert.equal(
+      (await first.post('/api/members/invitations', { email, role: 'teacher' })).status,
+      201,
+    );
+    await t.outbox.drain();
+    assert.equal(
+      (await second.post('/api/members/invitations', { email, role: 'lead' })).status,
+      201,
+    );
+    await t.outbox.drain();
+    const links: string[] = [];
+    for (let i = 0; i < 50 && links.length < 2; i++) {
+      links.splice(
+        0,
+        links.length,
+        ...t.smtp
+          .messages()
+          .filter((m) => m.to.includes(email))
+          .map((m) => m.links[0]!),
+      );
+      if (links.length < 2) await new Promise((r) => setTimeout(r, 50));
+    }
+    assert.equal(links.length, 2);
+    const answers = await Promise.all(
+      links.map((l) =>
+        new Browser(t.app).post(`/api/invitations/${new URL(l).pathname.split('/').pop()}/accept`, {
+          name: 'Sam Two',
+          password: 'one school only please 5',
+        }),
+      ),
+    );
+    assert.deepEqual(answers.map((a) => a.status).sort(), [200, 409]);
+    const joined = await t.database.db
+      .select()
+      .from(users)
+      .where(and(eq(users.email, email), eq(users.status, 'active')));
+    assert.equal(joined.length, 1);
   });
 
   it('resend makes the old link stop working', async () => {

@@ -1,4 +1,5 @@
-import { index, pgTable, text, timestamp, uuid } from 'drizzle-orm/pg-core';
+import { sql } from 'drizzle-orm';
+import { index, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core';
 import { schools } from './schools.js';
 import { ROLES } from '../../../shared/schemas/common.js';
 import { MEMBER_STATUSES } from '../../../shared/schemas/members.js';
@@ -11,8 +12,12 @@ export const users = pgTable(
     schoolId: uuid()
       .notNull()
       .references(() => schools.id, { onDelete: 'cascade' }),
-    /** Stored lower-case; unique across Trayplan since a person belongs to one school. */
-    email: text().notNull().unique(),
+    /**
+     * Stored lower-case. A person has one joined account across Trayplan; invitations of the same
+     * address may wait in several schools (an admin must not learn that the address belongs to
+     * another school), and only one of them can ever be accepted.
+     */
+    email: text().notNull(),
     name: text().notNull().default(''),
     role: text({ enum: ROLES }).notNull(),
     status: text({ enum: MEMBER_STATUSES }).notNull().default('active'),
@@ -21,7 +26,13 @@ export const users = pgTable(
     lastSignInAt: timestamp({ withTimezone: true }),
     createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
   },
-  (t) => [index('users_school_idx').on(t.schoolId)],
+  (t) => [
+    index('users_school_idx').on(t.schoolId),
+    uniqueIndex('users_school_email_idx').on(t.schoolId, t.email),
+    uniqueIndex('users_joined_email_idx')
+      .on(t.email)
+      .where(sql`${t.status} <> 'invited'`),
+  ],
 );
 
 /** One-time invitation links; only the SHA-256 of the token is stored. */

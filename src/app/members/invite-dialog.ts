@@ -19,7 +19,7 @@ import { formErrorMessage, showFieldError } from '../forms/server-errors';
 import { zodValidator } from '../forms/validators';
 import { MembersApi } from './members-api';
 
-/** Shown under the e-mail field for a 409 `email-taken`. */
+/** Shown under the e-mail field for a 409 `already-member`. */
 export const EMAIL_TAKEN_MESSAGE = 'Someone at this school already has that e-mail address.';
 
 /** Invites a new member by e-mail; closes with the invited `Member`. */
@@ -97,7 +97,7 @@ export class InviteDialog {
       error: (error: unknown) => {
         this.submitting.set(false);
         if (!(error instanceof AppError)) throw error;
-        if (error.code === 'email-taken') {
+        if (error.code === 'already-member') {
           showFieldError(this.form, 'email', EMAIL_TAKEN_MESSAGE);
         } else {
           this.formError.set(formErrorMessage(this.form, error));

@@ -225,7 +225,7 @@ describe('Members', () => {
     await (await dialog.getHarness(MatButtonHarness.with({ text: 'Send invitation' }))).click();
     backend
       .expectOne('/api/members/invitations')
-      .flush(errorBody('email-taken', 'Taken.'), { status: 409, statusText: 'Conflict' });
+      .flush(errorBody('already-member', 'Taken.'), { status: 409, statusText: 'Conflict' });
     await fixture.whenStable();
     expect(await dialog.getText()).toContain(EMAIL_TAKEN_MESSAGE);
     expect(await root.getAllHarnesses(MatSnackBarHarness)).toEqual([]);
