@@ -105,7 +105,7 @@ export async function lessonDetail(tx: Tx, actor: Actor, lessonId: string): Prom
   const [row] = await tx
     .select({
       lesson: lessons,
-      unit: { id: units.id, title: units.title },
+      unit: { id: units.id, title: units.title, status: units.status },
       cls: classes,
       kit: { id: kitTypes.id, name: kitTypes.name },
     })

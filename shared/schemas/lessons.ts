@@ -14,6 +14,7 @@ import {
   markdownText,
   plainText,
   requiredText,
+  unitStatusSchema,
   versionSchema,
   wholeNumber,
 } from './units.js';
@@ -285,7 +286,8 @@ export const lessonSchema = z.object({
   version: z.number(),
   position: z.number(),
   title: z.string(),
-  unit: z.object({ id: z.string(), title: z.string() }),
+  /** Its unit; `status` so an editor can warn that an edit returns an endorsed unit to draft. */
+  unit: z.object({ id: z.string(), title: z.string(), status: unitStatusSchema }),
   class: z.object({
     id: z.string(),
     name: z.string(),

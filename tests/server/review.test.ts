@@ -257,6 +257,106 @@ describe('an edit to an endorsed unit', () => {
     assert.equal((await unitRow(lessonUnit)).status, 'draft');
   });
 
+  it('returns to draft on every other kind of edit too, and the lesson answer says so', async () => {
+    const teacher = await as(TEACHER);
+    const db = t.database.db;
+    /** An endorsed unit with one lesson holding two activities. */
+    async function endorsedWithLesson() {
+      const unitId = await newUnit('endorsed');
+      const lessonId = await insertLesson(db, {
+        unitId,
+        schoolId: kestrel,
+        title: 'Lesson one',
+        classId,
+        kitTypeId,
+        startsAt: '2026-05-11T09:00',
+        endsAt: '2026-05-11T09:50',
+        groupSize: 3,
+      });
+      const acts = await db
+        .insert(activities)
+        .values([
+          { lessonId, position: 1, title: 'Build', kind: 'build', minutes: 20 },
+          { lessonId, position: 2, title: 'Test', kind: 'build', minutes: 10 },
+        ])
+        .returning();
+      return { unitId, lessonId, activityIds: acts.map((a) => a.id) };
+    }
+    type Endorsed = Awaited<ReturnType<typeof endorsedWithLesson>>;
+    const edits: [string, (u: Endorsed) => ReturnType<Browser['get']>][] = [
+      [
+        'a lesson added',
+        (u) =>
+          teacher.post(`/api/units/${u.unitId}/lessons`, {
+            title: 'Lesson two',
+            classId,
+            kitTypeId,
+            startsAt: '2026-05-12T09:00',
+            endsAt: '2026-05-12T09:50',
+            groupSize: 3,
+          }),
+      ],
+      [
+        'a lesson edited',
+        (u) => teacher.patch(`/api/lessons/${u.lessonId}`, { version: 1, room: 'Lab 2' }),
+      ],
+      ['a lesson deleted', (u) => teacher.delete(`/api/lessons/${u.lessonId}?version=1`)],
+      [
+        'the lessons put in order',
+        (u) =>
+          teacher.send('put', `/api/units/${u.unitId}/lesson-order`, {
+            version: 1,
+            lessonIds: [u.lessonId],
+          }),
+      ],
+      [
+        'the activities put in order',
+        (u) =>
+          teacher.send('put', `/api/lessons/${u.lessonId}/activity-order`, {
+            version: 1,
+            activityIds: [...u.activityIds].reverse(),
+          }),
+      ],
+      [
+        'an activity added',
+        (u) =>
+          teacher.post(`/api/lessons/${u.lessonId}/activities`, {
+            title: 'Reflect',
+            kind: 'reflect',
+            minutes: 5,
+          }),
+      ],
+      [
+        'an activity deleted',
+        (u) => teacher.delete(`/api/activities/${u.activityIds[0]}?version=1`),
+      ],
+    ];
+    for (const [label, edit] of edits) {
+      const u = await endorsedWithLesson();
+      const res = await edit(u);
+      assert.ok(res.status >= 200 && res.status < 300, `${label}: ${res.status}`);
+      assert.equal((await unitRow(u.unitId)).status, 'draft', label);
+      // A lesson's answer carries its unit's status, which the editors warn with.
+      if (res.body.unit) assert.equal(res.body.unit.status, 'draft', label);
+      const history = await db
+        .select()
+        .from(unitEvents)
+        .where(and(eq(unitEvents.unitId, u.unitId), eq(unitEvents.action, 'review')));
+      assert.deepEqual(
+        history.map((e) => e.summary),
+        ['Edited after endorsement: Endorsed → Draft'],
+        label,
+      );
+    }
+    // A refused edit (400) rolls the withdrawal back with it.
+    const u = await endorsedWithLesson();
+    const bad = await teacher.patch(`/api/lessons/${u.lessonId}`, { version: 1, groupSize: 0 });
+    assert.equal(bad.status, 400);
+    assert.equal((await unitRow(u.unitId)).status, 'endorsed');
+    const read = await teacher.get(`/api/lessons/${u.lessonId}`);
+    assert.equal(read.body.unit.status, 'endorsed');
+  });
+
   it('stays endorsed when the edit is refused (stale version), and in review stays in review', async () => {
     const teacher = await as(TEACHER);
     const id = await newUnit('endorsed');

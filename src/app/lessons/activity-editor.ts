@@ -36,6 +36,7 @@ import { MatDialog } from '@angular/material/dialog';
 import { FieldErrorPipe } from '../forms/field-error';
 import { formErrorMessage } from '../forms/server-errors';
 import { zodValidator } from '../forms/validators';
+import { confirmEndorsedEdit, endorsedDeleteNote } from '../review/endorsed-edit';
 import { LessonFormApi } from './lesson-form-api';
 import {
   materialRow,
@@ -95,6 +96,10 @@ export class ActivityEditor {
   readonly parts = input.required<readonly Part[]>();
   readonly saved = output<Activity>();
   readonly closed = output<void>();
+  /** The unit's title while it is endorsed: a change is asked about first (it returns to draft). */
+  readonly endorsedUnit = input<string | null>(null);
+  /** After any change saved (the activity, a delete, an attachment): the unit is a draft now. */
+  readonly edited = output<void>();
 
   protected readonly kinds = ACTIVITY_KINDS;
   protected readonly kindLabels = ACTIVITY_KIND_LABELS;
@@ -168,7 +173,9 @@ export class ActivityEditor {
       this.formError.set('Check the fields marked below.');
       return;
     }
-    this.send(this.base?.version ?? null);
+    confirmEndorsedEdit(this.dialog, this.endorsedUnit(), 'this activity').subscribe((yes) => {
+      if (yes) this.send(this.base?.version ?? null);
+    });
   }
 
   private send(version: number | null): void {
@@ -191,6 +198,7 @@ export class ActivityEditor {
         this.base = activity;
         this.form.markAsPristine();
         this.notifier.info(`“${activity.title}” is saved.`);
+        this.edited.emit();
         this.saved.emit(activity);
       },
       error: (error: unknown) => {
@@ -245,7 +253,7 @@ export class ActivityEditor {
     if (!activity) return this.closed.emit();
     confirm(this.dialog, {
       title: 'Delete this activity?',
-      message: `“${activity.title}” is deleted with its materials and attachments.`,
+      message: `“${activity.title}” is deleted with its materials and attachments.${endorsedDeleteNote(this.endorsedUnit())}`,
       confirm: 'Delete activity',
       cancel: 'Keep it',
       danger: true,
@@ -259,6 +267,7 @@ export class ActivityEditor {
       next: () => {
         this.form.markAsPristine();
         this.notifier.info(`“${activity.title}” is deleted.`);
+        this.edited.emit();
         this.closed.emit();
       },
       error: (error: unknown) => {
@@ -286,6 +295,12 @@ export class ActivityEditor {
       this.uploadError.set(`“${file.name}” is ${fileSize(file.size)}; the limit is 10 MB.`);
       return;
     }
+    confirmEndorsedEdit(this.dialog, this.endorsedUnit(), 'this attachment').subscribe((yes) => {
+      if (yes) this.sendFile(activity, file);
+    });
+  }
+
+  private sendFile(activity: Activity, file: File): void {
     this.uploadPercent.set(0);
     this.api.upload(activity.id, file).subscribe({
       next: (e) => {
@@ -293,6 +308,7 @@ export class ActivityEditor {
         else {
           this.uploadPercent.set(undefined);
           this.attachments.update((list) => [...list, e.attachment]);
+          this.edited.emit();
           this.notifier.info(`“${e.attachment.filename}” is attached.`);
         }
       },
@@ -306,7 +322,7 @@ export class ActivityEditor {
   protected removeAttachment(a: Attachment): void {
     confirm(this.dialog, {
       title: 'Remove this attachment?',
-      message: `“${a.filename}” is removed from the activity.`,
+      message: `“${a.filename}” is removed from the activity.${endorsedDeleteNote(this.endorsedUnit())}`,
       confirm: 'Remove',
       cancel: 'Keep it',
       danger: true,
@@ -317,7 +333,10 @@ export class ActivityEditor {
 
   private deleteAttachment(a: Attachment): void {
     this.api.deleteAttachment(a.id).subscribe({
-      next: () => this.attachments.update((list) => list.filter((x) => x.id !== a.id)),
+      next: () => {
+        this.attachments.update((list) => list.filter((x) => x.id !== a.id));
+        this.edited.emit();
+      },
       error: (error: unknown) =>
         this.uploadError.set(error instanceof Error ? error.message : 'Not removed.'),
     });

@@ -10,8 +10,10 @@ import { MatSelectHarness } from '@angular/material/select/testing';
 import { Router } from '@angular/router';
 import { provideMarkdown } from 'ngx-markdown';
 import type { TubSummary } from '../../../shared/schemas/kits';
+import { MatDialogHarness } from '@angular/material/dialog/testing';
 import type { Lesson } from '../../../shared/schemas/lessons';
-import { Blank, errorBody, testProviders } from '../testing/test-providers';
+import type { Unit } from '../../../shared/schemas/units';
+import { Blank, errorBody, settleReads, testProviders } from '../testing/test-providers';
 import { LessonEditor } from './lesson-editor';
 
 // Invented demo records; ids are valid UUIDs because the form checks them as the schema does.
@@ -45,7 +47,7 @@ function lesson(overrides: Partial<Lesson> = {}): Lesson {
     version: 3,
     position: 1,
     title: 'Build the rover',
-    unit: { id: 'unit-1', title: 'Rescue Rovers' },
+    unit: { id: 'unit-1', title: 'Rescue Rovers', status: 'draft' },
     class: { id: CLASS_ID, name: '4K', yearLevel: 4, studentCount: 26, devices: 8 },
     kitType: { id: KIT_ID, name: 'Rover Builder Tub' },
     tubIds: [...TUB_IDS],
@@ -66,12 +68,40 @@ function lesson(overrides: Partial<Lesson> = {}): Lesson {
   };
 }
 
+/** The unit a new lesson goes in, as `GET /api/units/:id` answers (invented). */
+function unitOf(status: Unit['status']): Unit {
+  return {
+    id: 'unit-1',
+    title: 'Rescue Rovers',
+    yearLevel: 4,
+    learningArea: 'Digital Technologies',
+    term: 3,
+    status,
+    visibility: 'school',
+    owner: { id: 'user-teacher', name: 'Jordan Pell', email: 'teacher@kestrel-ridge.example' },
+    version: 2,
+    updatedAt: '2026-07-20T09:00:00+09:30',
+    canEdit: true,
+    overview: '',
+    copiedFromId: null,
+    basedOn: null,
+    createdAt: '2026-07-01T09:00:00+09:30',
+    coauthors: [],
+    outcomes: [],
+    lessons: [],
+    isOwner: true,
+  };
+}
+
 describe('LessonEditor', () => {
   let fixture: ComponentFixture<LessonEditor>;
   let loader: HarnessLoader;
   let backend: HttpTestingController;
 
-  async function start(inputs: Record<string, string>): Promise<void> {
+  async function start(
+    inputs: Record<string, string>,
+    unitStatus: Unit['status'] = 'draft',
+  ): Promise<void> {
     TestBed.configureTestingModule({
       providers: [
         testProviders([{ path: 'lessons/:id/edit', component: Blank }]),
@@ -126,6 +156,12 @@ describe('LessonEditor', () => {
     backend.expectOne('/api/relief/teachers').flush({
       teachers: [{ id: RELIEF_ID, name: 'Robin Tally', email: 'relief@kestrel-ridge.example' }],
     });
+    // A new lesson's unit is read for its review status.
+    if (inputs['unit']) {
+      await settleReads();
+      backend.expectOne(`/api/units/${inputs['unit']}`).flush(unitOf(unitStatus));
+      await settleReads();
+    }
   }
 
   /** Answers the kit type's parts list and tubs (one of them retired). */
@@ -293,5 +329,94 @@ describe('LessonEditor', () => {
       MatFormFieldHarness.with({ floatingLabelText: 'Starts' }),
     );
     expect(await starts.getTextErrors()).toEqual(['That time falls outside the school day.']);
+  });
+
+  describe('in an endorsed unit', () => {
+    const ENDORSED = { id: 'unit-1', title: 'Rescue Rovers', status: 'endorsed' as const };
+    const root = () => TestbedHarnessEnvironment.documentRootLoader(fixture);
+    const text = () => (fixture.nativeElement as HTMLElement).textContent ?? '';
+
+    async function answer(button: string): Promise<void> {
+      const dialog = await root().getHarness(MatDialogHarness);
+      expect(await dialog.getTitleText()).toBe('Return the unit to draft?');
+      expect(await dialog.getContentText()).toContain('“Rescue Rovers” is endorsed.');
+      await (await dialog.getHarness(MatButtonHarness.with({ text: button }))).click();
+      await fixture.whenStable();
+    }
+
+    it('warns, asks before saving the lesson, and sends nothing when not confirmed', async () => {
+      await start({ id: 'lesson-1' });
+      backend.expectOne('/api/lessons/lesson-1').flush(lesson({ unit: ENDORSED }));
+      flushKit();
+      fixture.detectChanges();
+      expect(text()).toContain('This unit is endorsed.');
+      await (await input('Lesson title')).setValue('Build and test the rover');
+      await (await loader.getHarness(MatButtonHarness.with({ text: 'Save lesson' }))).click();
+      await answer('Don’t save');
+      backend.expectNone('/api/lessons/lesson-1');
+      expect(fixture.componentInstance.hasUnsavedChanges()).toBeTrue();
+
+      await (await loader.getHarness(MatButtonHarness.with({ text: 'Save lesson' }))).click();
+      await answer('Save and return to draft');
+      const req = backend.expectOne('/api/lessons/lesson-1');
+      expect(req.request.body).toEqual({ version: 3, title: 'Build and test the rover' });
+      req.flush(
+        lesson({
+          version: 4,
+          title: 'Build and test the rover',
+          unit: { ...ENDORSED, status: 'draft' },
+        }),
+      );
+      flushKit();
+      fixture.detectChanges();
+      expect(text()).not.toContain('This unit is endorsed.');
+    });
+
+    it('asks before an activity is added; once saved the unit is a draft and nothing more is asked', async () => {
+      await start({ id: 'lesson-1' });
+      backend.expectOne('/api/lessons/lesson-1').flush(lesson({ unit: ENDORSED }));
+      flushKit();
+      fixture.detectChanges();
+      await (await loader.getHarness(MatButtonHarness.with({ text: /Add an activity/ }))).click();
+      await (await input('Activity title')).setValue('Test drive');
+      await (await loader.getHarness(MatButtonHarness.with({ text: 'Add activity' }))).click();
+      await answer('Save and return to draft');
+      const req = backend.expectOne('/api/lessons/lesson-1/activities');
+      expect(req.request.body).toEqual(
+        jasmine.objectContaining({ title: 'Test drive', kind: 'build' }),
+      );
+      req.flush(
+        {
+          id: 'activity-1',
+          lessonId: 'lesson-1',
+          version: 1,
+          position: 1,
+          title: 'Test drive',
+          kind: 'build',
+          minutes: 10,
+          materials: [],
+          attachments: [],
+        },
+        { status: 201, statusText: 'Created' },
+      );
+      await fixture.whenStable();
+      expect(text()).not.toContain('This unit is endorsed.');
+      expect(await root().getAllHarnesses(MatDialogHarness)).toEqual([]);
+    });
+
+    it('asks before a new lesson is created in it', async () => {
+      await start({ unit: 'unit-1' }, 'endorsed');
+      fixture.detectChanges();
+      expect(text()).toContain('This unit is endorsed.');
+      await (await input('Lesson title')).setValue('Build the rover');
+      await select('Class', /4K/);
+      await select('Kit type', 'Rover Builder Tub');
+      flushKit();
+      await (await input('Date')).setValue('2026-07-28');
+      await select('Period', /Period 3/);
+      await (await loader.getHarness(MatButtonHarness.with({ text: 'Create lesson' }))).click();
+      await answer('Don’t save');
+      backend.expectNone('/api/units/unit-1/lessons');
+    });
   });
 });

@@ -12,6 +12,7 @@ import {
   effect,
   inject,
   input,
+  linkedSignal,
   signal,
   untracked,
   viewChildren,
@@ -19,6 +20,7 @@ import {
 import { FormGroup, ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatCheckboxModule } from '@angular/material/checkbox';
+import { MatDialog } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
@@ -47,6 +49,9 @@ import { ORDER_CONFLICTS, staleConflict } from '../errors/conflict';
 import { Notifier } from '../errors/notifier';
 import { FieldErrorPipe } from '../forms/field-error';
 import { formErrorMessage } from '../forms/server-errors';
+import { apiResource } from '../http/resource';
+import { confirmEndorsedEdit, EndorsedNotice } from '../review/endorsed-edit';
+import { UnitsApi } from '../units/units-api';
 import { ActivityEditor } from './activity-editor';
 import {
   changedFields,
@@ -87,6 +92,7 @@ interface Conflict {
     MatProgressBarModule,
     MatSelectModule,
     ActivityEditor,
+    EndorsedNotice,
     FieldErrorPipe,
   ],
   templateUrl: './lesson-editor.html',
@@ -98,6 +104,8 @@ export class LessonEditor implements HasUnsavedChanges {
   private readonly api = inject(LessonFormApi);
   private readonly router = inject(Router);
   private readonly notifier = inject(Notifier);
+  private readonly dialog = inject(MatDialog);
+  private readonly units = inject(UnitsApi);
 
   /** Route parameter `:id` (editing), absent when creating. */
   readonly id = input<string>();
@@ -125,6 +133,21 @@ export class LessonEditor implements HasUnsavedChanges {
   protected readonly saving = signal(false);
   protected readonly creating = computed(() => !this.id());
   private readonly editors = viewChildren(ActivityEditor);
+  /** The unit a new lesson goes in, read for its status (an edited lesson carries its unit). */
+  private readonly newLessonUnit = apiResource({
+    params: () => (this.id() ? undefined : this.unit()),
+    load: (id: string) => this.units.get(id),
+  });
+  /** The unit's review status as last known; any saved change makes an endorsed one a draft. */
+  private readonly unitStatus = linkedSignal(
+    () => this.lesson()?.unit.status ?? this.newLessonUnit.value()?.status ?? null,
+  );
+  /** The unit's title while it is endorsed (the editors warn and ask before saving), else null. */
+  protected readonly endorsedUnit = computed(() =>
+    this.unitStatus() === 'endorsed'
+      ? (this.lesson()?.unit.title ?? this.newLessonUnit.value()?.title ?? null)
+      : null,
+  );
 
   constructor() {
     this.api.classes().subscribe((list) => this.classes.set(list));
@@ -237,6 +260,12 @@ export class LessonEditor implements HasUnsavedChanges {
       this.formError.set('Check the fields marked below.');
       return;
     }
+    confirmEndorsedEdit(this.dialog, this.endorsedUnit(), 'this lesson').subscribe((yes) => {
+      if (yes) this.send();
+    });
+  }
+
+  private send(): void {
     const body = lessonBody(this.form.getRawValue());
     const lesson = this.lesson();
     if (!lesson) {
@@ -314,11 +343,18 @@ export class LessonEditor implements HasUnsavedChanges {
   }
 
   protected drop(event: CdkDragDrop<Activity[]>): void {
+    if (!this.lesson() || event.previousIndex === event.currentIndex) return;
+    confirmEndorsedEdit(this.dialog, this.endorsedUnit(), 'the new order').subscribe((yes) => {
+      if (yes) this.sendOrder(event.previousIndex, event.currentIndex);
+    });
+  }
+
+  private sendOrder(from: number, to: number): void {
     const lesson = this.lesson();
-    if (!lesson || event.previousIndex === event.currentIndex) return;
+    if (!lesson) return;
     const before = this.activities();
     const next = [...before];
-    moveItemInArray(next, event.previousIndex, event.currentIndex);
+    moveItemInArray(next, from, to);
     this.activities.set(next);
     this.orderMessage.set(null);
     this.api
@@ -357,6 +393,11 @@ export class LessonEditor implements HasUnsavedChanges {
     this.drop({ previousIndex: index, currentIndex: to } as CdkDragDrop<Activity[]>);
   }
 
+  /** An activity's change was saved: the server has returned an endorsed unit to draft. */
+  protected unitEdited(): void {
+    if (this.unitStatus() === 'endorsed') this.unitStatus.set('draft');
+  }
+
   protected activitySaved(activity: Activity): void {
     const list = this.activities();
     const known = list.some((a) => a.id === activity.id);
@@ -373,6 +414,7 @@ export class LessonEditor implements HasUnsavedChanges {
     if (lesson && id) {
       this.api.lesson(lesson.id).subscribe((fresh) => {
         this.activities.set(fresh.activities);
+        this.unitStatus.set(fresh.unit.status);
         if (!this.form.dirty) this.fill(fresh);
       });
     }

@@ -134,7 +134,7 @@ export function workedExampleLesson(overrides: Partial<Lesson> = {}): Lesson {
     version: 3,
     position: 2,
     title: 'Drive train',
-    unit: { id: 'unit-rovers', title: 'Rescue Rovers' },
+    unit: { id: 'unit-rovers', title: 'Rescue Rovers', status: 'draft' },
     class: { id: 'class-4k', name: '4K', yearLevel: 4, studentCount: 10, devices: 2 },
     kitType: { id: 'kit-rover', name: 'Rover Builder Tub' },
     tubIds: ['t1', 't2', 't3'],

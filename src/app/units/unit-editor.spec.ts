@@ -252,3 +252,85 @@ describe('UnitEditor', () => {
 function toObservable<T>(value: T | import('rxjs').Observable<T>) {
   return isObservable(value) ? value : of(value);
 }
+
+describe('UnitEditor on an endorsed unit', () => {
+  let fixture: ComponentFixture<UnitEditor>;
+  let loader: HarnessLoader;
+  let root: HarnessLoader;
+  let backend: HttpTestingController;
+
+  beforeEach(async () => {
+    TestBed.configureTestingModule({
+      providers: [...testProviders([{ path: 'units', component: Blank }]), provideMarkdown()],
+    });
+    backend = TestBed.inject(HttpTestingController);
+    fixture = TestBed.createComponent(UnitEditor);
+    fixture.componentRef.setInput('id', 'u-1');
+    loader = TestbedHarnessEnvironment.loader(fixture);
+    root = TestbedHarnessEnvironment.documentRootLoader(fixture);
+    fixture.detectChanges();
+    backend.expectOne('/api/units/u-1').flush(unit({ status: 'endorsed' }));
+    backend.expectOne('/api/school/teachers').flush({ teachers: [] });
+    await fixture.whenStable();
+    backend.expectOne('/api/outcomes/frameworks').flush({ frameworks: [] });
+    await fixture.whenStable();
+  });
+
+  afterEach(() => backend.verify());
+
+  const text = () => (fixture.nativeElement as HTMLElement).textContent ?? '';
+  const title = () =>
+    loader.getHarness(MatInputHarness.with({ selector: '[formControlName=title]' }));
+
+  async function saveAndAnswer(answer: string) {
+    await (await title()).setValue('Rescue Rovers on Mars');
+    await (await loader.getHarness(MatButtonHarness.with({ text: 'Save changes' }))).click();
+    const dialog = await root.getHarness(MatDialogHarness);
+    expect(await dialog.getTitleText()).toBe('Return the unit to draft?');
+    expect(await dialog.getContentText()).toContain('“Rescue Rovers” is endorsed.');
+    await (await dialog.getHarness(MatButtonHarness.with({ text: answer }))).click();
+    await fixture.whenStable();
+  }
+
+  it('says that saving returns it to draft', () => {
+    expect(text()).toContain('This unit is endorsed.');
+    expect(text()).toContain('returns it to draft');
+  });
+
+  it('sends nothing when the teacher does not confirm, and keeps the change in the form', async () => {
+    await saveAndAnswer('Don’t save');
+    backend.expectNone('/api/units/u-1');
+    expect(await (await title()).getValue()).toBe('Rescue Rovers on Mars');
+    expect(fixture.componentInstance.hasUnsavedChanges()).toBeTrue();
+  });
+
+  it('saves after the teacher confirms; the draft it comes back as asks no more', async () => {
+    await saveAndAnswer('Save and return to draft');
+    const req = backend.expectOne('/api/units/u-1');
+    expect(req.request.body).toEqual({ version: 2, title: 'Rescue Rovers on Mars' });
+    req.flush(unit({ version: 3, title: 'Rescue Rovers on Mars', status: 'draft' }));
+    await fixture.whenStable();
+    expect(text()).not.toContain('This unit is endorsed.');
+    await (await title()).setValue('Rescue Rovers on the Moon');
+    await (await loader.getHarness(MatButtonHarness.with({ text: 'Save changes' }))).click();
+    expect(await root.getAllHarnesses(MatDialogHarness)).toEqual([]);
+    backend
+      .expectOne('/api/units/u-1')
+      .flush(unit({ version: 4, title: 'Rescue Rovers on the Moon' }));
+    await fixture.whenStable();
+  });
+
+  it('asks before a new lesson order too, and puts the order back when not confirmed', async () => {
+    const list = fixture.debugElement.query(By.directive(CdkDropList)).injector.get(CdkDropList);
+    list.dropped.emit({ previousIndex: 1, currentIndex: 0 } as CdkDragDrop<UnitLesson[]>);
+    const dialog = await root.getHarness(MatDialogHarness);
+    await (await dialog.getHarness(MatButtonHarness.with({ text: 'Don’t save' }))).click();
+    await fixture.whenStable();
+    backend.expectNone('/api/units/u-1/lesson-order');
+    const shown = Array.from(
+      (fixture.nativeElement as HTMLElement).querySelectorAll('.lessons li'),
+      (li) => li.textContent ?? '',
+    );
+    expect(shown[0]).toContain('Meet the rover');
+  });
+});

@@ -46,6 +46,7 @@ import { formErrorMessage } from '../forms/server-errors';
 import { zodValidator } from '../forms/validators';
 import { clockTime, dayLabel } from '../lessons/clock';
 import { confirm } from '../forms/confirm-dialog';
+import { confirmEndorsedEdit, EndorsedNotice } from '../review/endorsed-edit';
 import { OutcomePicker } from './outcome-picker';
 import { UnitFields, unitFieldControls } from './unit-fields';
 import {
@@ -96,6 +97,7 @@ interface Conflict {
     FieldErrorPipe,
     OutcomePicker,
     UnitFields,
+    EndorsedNotice,
   ],
   templateUrl: './unit-editor.html',
   styleUrl: './unit-editor.scss',
@@ -141,6 +143,11 @@ export class UnitEditor implements HasUnsavedChanges {
     return unit && draft ? changedFields(unit, draft) : {};
   });
   protected readonly dirty = computed(() => Object.keys(this.changes()).length > 0);
+  /** The unit's title while it is endorsed: saving asks first, as it returns the unit to draft. */
+  protected readonly endorsedTitle = computed(() => {
+    const unit = this.unit();
+    return unit?.status === 'endorsed' ? unit.title : null;
+  });
   protected readonly overviewPreview = computed(() => this.draft()?.overview ?? '');
   /** Co-authors to choose from: the class teachers and those already chosen, never the owner. */
   protected readonly coauthorOptions = computed<PersonRef[]>(() => {
@@ -193,7 +200,11 @@ export class UnitEditor implements HasUnsavedChanges {
       this.form.markAllAsTouched();
       return;
     }
-    this.send(unit.version, this.changes());
+    const change = this.changes();
+    if (!Object.keys(change).length) return;
+    confirmEndorsedEdit(this.dialog, this.endorsedTitle(), 'your changes').subscribe((yes) => {
+      if (yes) this.send(unit.version, change);
+    });
   }
 
   protected reload(): void {
@@ -205,14 +216,21 @@ export class UnitEditor implements HasUnsavedChanges {
   protected reapply(): void {
     const conflict = this.conflict();
     if (!conflict?.retry) return;
+    const title = conflict.theirs.status === 'endorsed' ? conflict.theirs.title : null;
+    confirmEndorsedEdit(this.dialog, title, 'your change').subscribe((yes) => {
+      if (yes) this.resend(conflict.theirs, conflict.retry!);
+    });
+  }
+
+  private resend(theirs: Unit, retry: NonNullable<Conflict['retry']>): void {
     // The form becomes their unit plus only what this person changed, so nothing of theirs is
     // sent back (a field this person did not touch keeps the other person's value).
-    this.rebase(conflict.theirs);
-    if (conflict.retry.kind === 'edit') this.send(conflict.theirs.version, conflict.retry.change);
+    this.rebase(theirs);
+    if (retry.kind === 'edit') this.send(theirs.version, retry.change);
     else {
-      const order = conflict.retry.lessonIds;
-      this.lessons.set(order.map((id) => conflict.theirs.lessons.find((l) => l.id === id)!));
-      this.sendOrder(conflict.theirs, order);
+      const order = retry.lessonIds;
+      this.lessons.set(order.map((id) => theirs.lessons.find((l) => l.id === id)!));
+      this.sendOrder(theirs, order);
     }
   }
 
@@ -226,10 +244,14 @@ export class UnitEditor implements HasUnsavedChanges {
     const next = [...this.lessons()];
     moveItemInArray(next, from, to);
     this.lessons.set(next);
-    this.sendOrder(
-      unit,
-      next.map((l) => l.id),
-    );
+    confirmEndorsedEdit(this.dialog, this.endorsedTitle(), 'the new order').subscribe((yes) => {
+      if (yes)
+        this.sendOrder(
+          unit,
+          next.map((l) => l.id),
+        );
+      else this.lessons.set(unit.lessons);
+    });
   }
 
   protected remove(): void {
