@@ -25,6 +25,8 @@ import { authorsUnit, canReadLesson, type Actor } from '../auth/policy.js';
 import { intervalsOverlap, naturalCompare, type PrepPlan } from '../../shared/prep/index.js';
 import { toLocal } from '../planning/format.js';
 import { planLesson } from '../prep/plan-lesson.js';
+import { readTicks } from '../prep/ticks.js';
+import type { PrepTick } from '../../shared/schemas/prep-ticks.js';
 
 const weekQuery = z.object({
   week: schoolDate('Give the week as a date that exists, like 2026-07-27.'),
@@ -114,20 +116,33 @@ export function agendaRouter(ctx: AppContext): Router {
     const result = await ctx.db.transaction(
       async (tx) => {
         const rows = await readableLessons(tx, actor, from, to, q.mine === 'true');
-        const out: { lesson: ReturnType<typeof lessonSummary>; plan: PrepPlan | null }[] = [];
+        const out: {
+          lesson: ReturnType<typeof lessonSummary>;
+          plan: PrepPlan | null;
+          ticks: Map<string, PrepTick>;
+        }[] = [];
         for (const r of rows) {
           // Access was decided by readableLessons (the policy). A lesson the engine refuses shows
           // without tasks, listed as not plannable; any other error fails the request.
           const planned = await planLesson(tx, r.id);
           if (!planned) continue; // deleted since the list was read: impossible in one snapshot
-          out.push({ lesson: lessonSummary(r), plan: planned.plannable ? planned.plan : null });
+          const plan = planned.plannable ? planned.plan : null;
+          const keys = plan?.tasks.map((t) => t.key) ?? [];
+          const ticks = new Map((await readTicks(tx, r.id, keys)).map((t) => [t.taskKey, t]));
+          out.push({ lesson: lessonSummary(r), plan, ticks });
         }
         return out;
       },
       { isolationLevel: 'repeatable read', accessMode: 'read only' },
     );
     const tasks = result
-      .flatMap(({ lesson, plan }) => (plan?.tasks ?? []).map((task) => ({ ...task, lesson })))
+      .flatMap(({ lesson, plan, ticks }) =>
+        (plan?.tasks ?? []).map((task) => {
+          // Ticked by one of the lesson's teachers on the lesson page (shared with all of them).
+          const tick = ticks.get(task.key);
+          return { ...task, lesson, tick: tick ? { at: tick.at, by: tick.by } : null };
+        }),
+      )
       .sort((a, b) => Date.parse(a.startBy) - Date.parse(b.startBy));
     type Attention = { lesson: ReturnType<typeof lessonSummary>; kind: string; message: string };
     const attention: Attention[] = result.flatMap(({ lesson, plan }): Attention[] =>

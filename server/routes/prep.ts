@@ -1,35 +1,87 @@
 import { Router } from 'express';
 import type { AppContext } from '../context.js';
-import { notFound, parseParams } from '../http.js';
+import type { Tx } from '../db/client.js';
+import { HttpError, notFound, parse, parseParams } from '../http.js';
 import { requireActor } from '../auth/session.js';
 import { readableLesson } from '../planning/access.js';
+import { runnableLesson } from '../trays/access.js';
 import { idParamsSchema } from '../../shared/schemas/common.js';
 import type { LessonPrep } from '../../shared/prep/index.js';
+import { prepTickUpdateSchema, type PrepTicks } from '../../shared/schemas/prep-ticks.js';
 import { notPlannable, planLesson } from '../prep/plan-lesson.js';
+import { readTicks, setTick } from '../prep/ticks.js';
+
+/** The lesson's plan as stored now (404 when gone, 422 when the engine refuses it). */
+async function plannedLesson(tx: Tx, id: string) {
+  const planned = await planLesson(tx, id);
+  if (!planned) throw notFound('That lesson');
+  if (!planned.plannable) throw notPlannable(planned.problems);
+  return planned;
+}
 
 /**
- * `GET /:id/prep` inside the lessons router: the lesson's prep plan as stored now, with the name,
- * colour and compartment of each part it mentions (same policy as reading the lesson).
+ * Inside the lessons router: `GET /:id/prep`, the lesson's prep plan as stored now, with the
+ * name, colour and compartment of each part it mentions and the tasks' ticks (same policy as
+ * reading the lesson); and the ticks alone, read and set by the lesson's teachers.
  */
 export function prepRouter(ctx: AppContext): Router {
   const router = Router();
+  const snapshot = <T>(work: (tx: Tx) => Promise<T>) =>
+    ctx.db.transaction(work, { isolationLevel: 'repeatable read', accessMode: 'read only' });
+
   router.get('/:id/prep', async (req, res) => {
     const actor = requireActor(req);
     const { id } = parseParams(idParamsSchema, req);
-    const planned = await ctx.db.transaction(
-      async (tx) => {
-        await readableLesson(tx, actor, id);
-        return planLesson(tx, id);
-      },
-      { isolationLevel: 'repeatable read', accessMode: 'read only' },
-    );
-    if (!planned) throw notFound('That lesson');
-    if (!planned.plannable) throw notPlannable(planned.problems);
-    const answer: LessonPrep = {
-      ...planned.plan,
-      partNames: planned.partNames,
-      parts: planned.parts,
-    };
+    const answer: LessonPrep = await snapshot(async (tx) => {
+      await readableLesson(tx, actor, id);
+      const { plan, partNames, parts } = await plannedLesson(tx, id);
+      const ticks = await readTicks(
+        tx,
+        id,
+        plan.tasks.map((t) => t.key),
+      );
+      return { ...plan, partNames, parts, ticks };
+    });
+    res.json(answer);
+  });
+
+  // GET /:id/prep/ticks: whoever reads the lesson sees which prep tasks are done.
+  router.get('/:id/prep/ticks', async (req, res) => {
+    const actor = requireActor(req);
+    const { id } = parseParams(idParamsSchema, req);
+    const answer: PrepTicks = await snapshot(async (tx) => {
+      await readableLesson(tx, actor, id);
+      const { plan } = await plannedLesson(tx, id);
+      return {
+        ticks: await readTicks(
+          tx,
+          id,
+          plan.tasks.map((t) => t.key),
+        ),
+      };
+    });
+    res.json(answer);
+  });
+
+  /**
+   * PUT /:id/prep/ticks `{ taskKey, done }`: the lesson's teachers (its unit's authors and its
+   * relief teacher) tick or clear a task of the plan as stored now; answers every tick.
+   */
+  router.put('/:id/prep/ticks', async (req, res) => {
+    const actor = requireActor(req);
+    const { id } = parseParams(idParamsSchema, req);
+    const body = parse(prepTickUpdateSchema, req.body);
+    const answer: PrepTicks = await ctx.db.transaction(async (tx) => {
+      await runnableLesson(tx, actor, id);
+      const keys = (await plannedLesson(tx, id)).plan.tasks.map((t) => t.key);
+      if (!keys.includes(body.taskKey)) {
+        throw new HttpError(400, 'invalid-input', 'That task is not in the lesson’s prep plan.', [
+          { path: 'taskKey', message: 'This lesson’s prep plan has no task with that key.' },
+        ]);
+      }
+      await setTick(tx, actor.id, id, body.taskKey, body.done);
+      return { ticks: await readTicks(tx, id, keys) };
+    });
     res.json(answer);
   });
   return router;

@@ -29,7 +29,7 @@ export { balancedSizes, groupCount, groupSizes, fewestGroups, MAX_GROUP_SIZE } f
 export { naturalCompare, sortByLabel } from './natural.js';
 export { ceilDiv } from './math.js';
 export { packAwayMinutes } from './timeline.js';
-export { pullMinutes } from './tasks.js';
+export { pullMinutes, taskKey } from './tasks.js';
 export {
   addMinutes,
   formatInstant,

@@ -4,6 +4,7 @@
  * never be negative, fractional or NaN. Field names are part of the API.
  */
 import * as z from 'zod';
+import { prepTickSchema } from '../schemas/prep-ticks.js';
 
 const count = z.int().min(0);
 /** ISO 8601 with the zone's offset, seconds included: `2026-07-28T11:54:00+09:30`. */
@@ -104,6 +105,11 @@ export const TASK_KINDS = ['charge', 'sort', 'pull', 'devices'] as const;
 
 export const prepTaskSchema = z.object({
   kind: z.enum(TASK_KINDS),
+  /**
+   * Names the task within its lesson's plan and stays the same while counts and times change:
+   * `charge:<part code>`, `sort:<tub id>`, `pull`, `devices`. Prep-task ticks are kept by it.
+   */
+  key: z.string(),
   label: z.string(),
   minutes: count,
   startBy: instant,
@@ -152,12 +158,14 @@ export type LessonPart = z.infer<typeof lessonPartSchema>;
 /**
  * `GET /api/lessons/:id/prep`: the plan of PREP-RULES.md plus, for every part code that appears
  * in it, its name (`partNames`) and its name, colour and compartment (`parts`), so a screen can
- * show a pull list without loading the kit type's whole parts list. A code the parts list no
- * longer has is named by itself, with no colour or compartment.
+ * show a pull list without loading the kit type's whole parts list; and the tasks' ticks. A code
+ * the parts list no longer has is named by itself, with no colour or compartment.
  */
 export const lessonPrepSchema = prepPlanSchema.extend({
   partNames: z.record(z.string(), z.string()),
   parts: z.record(z.string(), lessonPartSchema),
+  /** The prep tasks ticked done by the lesson's teachers (by task key). */
+  ticks: z.array(prepTickSchema),
 });
 export type LessonPrep = z.infer<typeof lessonPrepSchema>;
 

@@ -29,6 +29,14 @@ interface TimedTask {
   order: number;
 }
 
+/**
+ * A task's key within its lesson's plan: its kind and what it is about (the part charged, the
+ * tub sorted), never its counts or times, so a tick stays on its task when the plan changes.
+ */
+export function taskKey(kind: PrepTask['kind'], subject?: string): string {
+  return subject === undefined ? kind : `${kind}:${subject}`;
+}
+
 /** pull minutes = base + ceil((L × s/line + P × s/piece) / 60), in integer arithmetic. */
 export function pullMinutes(settings: PrepSettings, lines: number, pieces: number): number {
   const seconds = lines * settings.pullSecondsPerLine + pieces * settings.pullSecondsPerPiece;
@@ -37,10 +45,17 @@ export function pullMinutes(settings: PrepSettings, lines: number, pieces: numbe
 
 export function buildTasks(x: TaskInput): { tasks: PrepTask[]; warnings: PrepWarning[] } {
   const timed: TimedTask[] = [];
-  const add = (kind: PrepTask['kind'], label: string, minutes: number, doneMs: number) => {
+  const add = (
+    kind: PrepTask['kind'],
+    key: string,
+    label: string,
+    minutes: number,
+    doneMs: number,
+  ) => {
     const startMs = addMinutes(doneMs, -minutes);
     const task = {
       kind,
+      key,
       label,
       minutes,
       startBy: x.clock.iso(startMs),
@@ -53,21 +68,39 @@ export function buildTasks(x: TaskInput): { tasks: PrepTask[]; warnings: PrepWar
   x.parts.forEach((part, p) => {
     const units = x.allocatedByPart[p]!;
     if (part.fullChargeMinutes === null || units <= 0) return;
-    add('charge', `Charge ${units} × ${part.name}`, part.fullChargeMinutes, chargeDone);
+    add(
+      'charge',
+      taskKey('charge', part.code),
+      `Charge ${units} × ${part.name}`,
+      part.fullChargeMinutes,
+      chargeDone,
+    );
     warnings.push(...rechargeGaps(x, part, p));
   });
   for (const tub of x.pool.unusable) {
     if (tub.status === 'needs-sorting') {
-      add('sort', `Sort and count ${tub.label}`, x.settings.sortMinutesPerTub, x.startMs);
+      add(
+        'sort',
+        taskKey('sort', tub.id),
+        `Sort and count ${tub.label}`,
+        x.settings.sortMinutesPerTub,
+        x.startMs,
+      );
     }
   }
   if (x.pieces > 0) {
     const label = `Pull ${plural(x.pieces, 'piece')} (${plural(x.lines, 'line')}) into the trays`;
-    add('pull', label, pullMinutes(x.settings, x.lines, x.pieces), x.startMs);
+    add('pull', taskKey('pull'), label, pullMinutes(x.settings, x.lines, x.pieces), x.startMs);
   }
   if (x.needsDevices) {
     const minutes = x.groups * x.settings.deviceCheckMinutesPerDevice;
-    add('devices', `Check and pair ${plural(x.groups, 'device')}`, minutes, x.startMs);
+    add(
+      'devices',
+      taskKey('devices'),
+      `Check and pair ${plural(x.groups, 'device')}`,
+      minutes,
+      x.startMs,
+    );
   }
   timed.sort(
     (a, b) =>

@@ -158,11 +158,37 @@ describe('R9 prep tasks', () => {
     const charge = plan.tasks.find((t) => t.kind === 'charge');
     assert.deepEqual(charge, {
       kind: 'charge',
+      key: 'charge:X-7',
       label: 'Charge 2 × Controller',
       minutes: 180,
       startBy: '2026-07-28T07:55:00+09:30',
       doneBy: '2026-07-28T10:55:00+09:30',
     });
+  });
+
+  it('keys each task by what it is about, not by its counts (our rule for prep-task ticks)', () => {
+    const plan = (groupSize: number) =>
+      computePrepPlan(
+        lesson({
+          lesson: { startsAt: '2026-07-28T11:10', endsAt: '2026-07-28T12:00', groupSize },
+          parts: [controller],
+          tubs: [tub('Tub 1', { 'X-7': 2 }), tub('Tub 2', { 'X-7': 2 })],
+          activities: [activity('Build', [{ partCode: 'X-7', qty: 1, per: 'group' }])],
+        }),
+      ).tasks;
+    const [a, b] = [plan(4), plan(8)];
+    assert.notDeepEqual(
+      a.map((t) => t.label),
+      b.map((t) => t.label),
+    );
+    assert.deepEqual(
+      a.map((t) => t.key),
+      b.map((t) => t.key),
+    );
+    assert.deepEqual(
+      a.map((t) => t.key),
+      ['charge:X-7', 'pull'],
+    );
   });
 
   it('computes pull minutes from lines and pieces in integer arithmetic', () => {

@@ -24,7 +24,15 @@ export const agendaSchema = z.object({
   lessons: z.array(
     agendaLessonSchema.extend({ groups: z.number().nullable(), shortfalls: z.number() }),
   ),
-  tasks: z.array(prepTaskSchema.extend({ lesson: agendaLessonSchema })),
+  tasks: z.array(
+    prepTaskSchema.extend({
+      lesson: agendaLessonSchema,
+      /** Ticked done by one of the lesson's teachers (on the lesson page), or null. */
+      tick: z
+        .object({ at: z.string(), by: z.object({ id: z.string(), name: z.string() }).nullable() })
+        .nullable(),
+    }),
+  ),
   attention: z.array(
     z.object({ lesson: agendaLessonSchema, kind: z.string(), message: z.string() }),
   ),

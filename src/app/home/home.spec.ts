@@ -25,19 +25,23 @@ const WEEK: Agenda = {
   tasks: [
     {
       kind: 'charge',
+      key: 'charge:RB-001',
       label: 'Charge 7 × Controller',
       minutes: 180,
       startBy: '2026-07-28T07:55:00+09:30',
       doneBy: '2026-07-28T10:55:00+09:30',
       lesson: LESSON,
+      tick: { at: '2026-07-28T07:50:00+09:30', by: { id: 'user-2', name: 'Sam Partner' } },
     },
     {
       kind: 'pull',
+      key: 'pull',
       label: 'Pull parts for 7 groups',
       minutes: 12,
       startBy: '2026-07-28T10:58:00+09:30',
       doneBy: '2026-07-28T11:10:00+09:30',
       lesson: LESSON,
+      tick: null,
     },
   ],
   attention: [{ lesson: LESSON, kind: 'shortfall', message: '1 × RB-001 short for group 7.' }],
@@ -106,6 +110,11 @@ describe('Home', () => {
     );
     expect(tasks[0]).toContain('Tue 28 Jul, 7:55 am Charge 7 × Controller');
     expect(tasks[1]).toContain('10:58 am Pull parts');
+    // The charge task was ticked on the lesson page; the pull is still to do.
+    expect(tasks[0]).toContain('Done (Sam Partner)');
+    expect(tasks[1]).not.toContain('Done');
+    const ticked = Array.from(el.querySelectorAll('.tasks li.ticked'));
+    expect(ticked.length).toBe(1);
     expect(el.querySelector('.attention')!.textContent).toContain('1 × RB-001 short for group 7.');
   });
 

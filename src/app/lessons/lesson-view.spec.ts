@@ -154,11 +154,23 @@ describe('LessonView', () => {
     expect(tasks[2]).toContain('4 min · start by 11:06 am · done by 11:10 am');
   });
 
-  it('ticks prep tasks off as a checklist', async () => {
+  it('ticks a prep task on the server, for every teacher of the lesson', async () => {
     const [first] = await loader.getAllHarnesses(MatCheckboxHarness);
     expect(await first.isChecked()).toBeFalse();
-    await first.check();
+    const checked = first.check();
+    await settleReads();
+    const put = backend.expectOne('/api/lessons/lesson-2/prep/ticks');
+    expect(put.request.method).toBe('PUT');
+    expect(put.request.body).toEqual({ taskKey: 'charge:RB-001', done: true });
+    put.flush({
+      ticks: [
+        { taskKey: 'charge:RB-001', at: '2026-07-28T07:50:00+09:30', by: { id: 'u', name: 'Kim' } },
+      ],
+    });
+    await checked;
+    await fixture.whenStable();
     expect(await first.isChecked()).toBeTrue();
+    expect(text()).toContain('Done by Kim');
   });
 
   it('applies the suggested group count as a group size and recomputes the plan', async () => {

@@ -12,11 +12,10 @@ import {
   untracked,
 } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
-import { MatCheckboxModule } from '@angular/material/checkbox';
 import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { RouterLink } from '@angular/router';
-import type { PrepSuggestion, PrepTask } from '../../../shared/prep/index';
+import type { PrepSuggestion } from '../../../shared/prep/index';
 import { lessonSchema, type Lesson } from '../../../shared/schemas/lessons';
 import { AppError } from '../errors/app-error';
 import { staleConflict } from '../errors/conflict';
@@ -25,7 +24,7 @@ import { Notifier } from '../errors/notifier';
 import { CAUTIONS_DEFER, SAFETY_CAUTIONS } from './cautions';
 import { BuildInstructions } from './build-instructions';
 import { ShareLinks } from '../share/share-links';
-import { clockOn, clockTime, dayLabel } from './clock';
+import { clockTime, dayLabel } from './clock';
 import { groupSizeFor } from './group-size';
 import { LessonsApi, type Printable } from './lessons-api';
 import { saveBlob } from '../files/transfer';
@@ -33,6 +32,8 @@ import { GroupBorrowsPipe } from './group-borrows';
 import { PullList, type PartInfo } from './pull-list';
 import { Timeline } from './timeline';
 import { TrayBoard } from './tray-board';
+import { PrepTasks } from './prep-tasks';
+import { Session } from '../auth/session';
 
 type GroupsSuggestion = Extract<PrepSuggestion, { kind: 'groups' }>;
 
@@ -48,7 +49,6 @@ interface Conflict {
   imports: [
     RouterLink,
     MatButtonModule,
-    MatCheckboxModule,
     MatIconModule,
     MatProgressBarModule,
     GroupBorrowsPipe,
@@ -57,6 +57,7 @@ interface Conflict {
     BuildInstructions,
     ShareLinks,
     TrayBoard,
+    PrepTasks,
   ],
   templateUrl: './lesson-view.html',
   styleUrl: './lesson-view.scss',
@@ -66,6 +67,7 @@ export class LessonView {
   private readonly api = inject(LessonsApi);
   private readonly notifier = inject(Notifier);
   private readonly injector = inject(Injector);
+  private readonly session = inject(Session);
 
   /** Route parameter `:id`. */
   readonly id = input.required<string>();
@@ -98,8 +100,10 @@ export class LessonView {
   protected readonly saving = signal(false);
   protected readonly conflict = signal<Conflict | null>(null);
   protected readonly download = signal<{ file: Printable; fraction: number | null } | null>(null);
-  /** Prep tasks ticked off on this screen (kept while the page is open). */
-  protected readonly done = signal<ReadonlySet<string>>(new Set());
+  /** Whether this person runs the lesson and ticks its prep tasks (as the policy decides). */
+  protected readonly canRun = computed(
+    () => !!this.lesson()?.canEdit || this.session.user()?.role === 'relief',
+  );
   private scrolled = false;
 
   protected readonly groupSuggestions = computed(
@@ -138,26 +142,6 @@ export class LessonView {
 
   protected day(value: string): string {
     return dayLabel(value);
-  }
-
-  /** A task time, with its day when it falls before the lesson's day. */
-  protected taskTime(value: string): string {
-    const lesson = this.lesson();
-    return lesson ? clockOn(value, lesson.startsAt) : clockTime(value);
-  }
-
-  protected taskKey(task: PrepTask): string {
-    return `${task.kind}|${task.label}|${task.startBy}`;
-  }
-
-  protected toggleTask(task: PrepTask, checked: boolean): void {
-    const key = this.taskKey(task);
-    this.done.update((keys) => {
-      const next = new Set(keys);
-      if (checked) next.add(key);
-      else next.delete(key);
-      return next;
-    });
   }
 
   /** The group size a suggestion needs, or null when no size gives exactly that many groups. */

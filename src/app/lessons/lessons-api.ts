@@ -3,6 +3,7 @@ import { Injectable, inject } from '@angular/core';
 import type { Observable } from 'rxjs';
 import { lessonSchema, type Lesson, type LessonUpdate } from '../../../shared/schemas/lessons';
 import { lessonPrepSchema, type LessonPrep } from '../../../shared/prep/plan-schema';
+import { prepTicksSchema, type PrepTicks } from '../../../shared/schemas/prep-ticks';
 import { downloadWithProgress, type DownloadEvent } from '../files/transfer';
 import { callerShowsErrors } from '../errors/error-context';
 import { parseWith } from '../errors/parse';
@@ -30,6 +31,13 @@ export class LessonsApi {
         quiet ? { context: callerShowsErrors() } : {},
       )
       .pipe(parseWith(lessonPrepSchema));
+  }
+
+  /** Ticks (`done`) or clears a prep task for all the lesson's teachers; answers every tick. */
+  setPrepTick(id: string, taskKey: string, done: boolean): Observable<PrepTicks> {
+    return this.http
+      .put(`/api/lessons/${encodeURIComponent(id)}/prep/ticks`, { taskKey, done })
+      .pipe(parseWith(prepTicksSchema));
   }
 
   /** The page shows a 409 (stale version) itself, with Reload and Re-apply. */

@@ -88,7 +88,7 @@ export function workedExamplePrep(plan: PrepPlan): LessonPrep {
       compartment: part?.compartment ?? null,
     };
   }
-  return { ...plan, partNames, parts };
+  return { ...plan, partNames, parts, ticks: [] };
 }
 
 /** The parts list of the worked example's kit type (colours and compartments invented). */
