@@ -1,4 +1,11 @@
-import { ChangeDetectionStrategy, Component, OnInit, inject, signal } from '@angular/core';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  effect,
+  inject,
+  signal,
+  untracked,
+} from '@angular/core';
 import { FormControl, FormGroup, FormGroupDirective, ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatCardModule } from '@angular/material/card';
@@ -13,6 +20,7 @@ import { FieldErrorPipe } from '../forms/field-error';
 import { formErrorMessage, showFieldError } from '../forms/server-errors';
 import { NEW_PASSWORD_WORDS, PasswordPair, passwordPair } from '../forms/password-pair';
 import { zodValidator } from '../forms/validators';
+import { apiResource } from '../http/resource';
 import { AccountApi } from './account-api';
 import { CalendarFeed } from './calendar-feed';
 
@@ -36,7 +44,7 @@ export const WRONG_PASSWORD_MESSAGE = "That isn't your current password.";
   styleUrl: './account.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
-export class Account implements OnInit {
+export class Account {
   private readonly api = inject(AccountApi);
   private readonly session = inject(Session);
   private readonly notifier = inject(Notifier);
@@ -65,10 +73,18 @@ export class Account implements OnInit {
   protected readonly savingPassword = signal(false);
   protected readonly passwordError = signal<string | null>(null);
 
-  ngOnInit(): void {
-    this.api.get().subscribe((user) => {
-      this.session.update(user);
-      if (this.nameForm.pristine) this.nameForm.setValue({ name: user.name });
+  /** The account as the server has it now (the session's copy may be hours old). */
+  private readonly read = apiResource({ load: () => this.api.get() });
+
+  constructor() {
+    effect(() => {
+      const user = this.read.value();
+      if (!user) return;
+      untracked(() => {
+        this.session.update(user);
+        // A name the user has started typing is theirs; only an untouched field follows.
+        if (this.nameForm.pristine) this.nameForm.setValue({ name: user.name });
+      });
     });
   }
 

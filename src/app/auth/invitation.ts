@@ -1,5 +1,5 @@
 import { DatePipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, OnInit, inject, input, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
 import { FormControl, FormGroup, ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatCardModule } from '@angular/material/card';
@@ -7,6 +7,7 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { Router } from '@angular/router';
+import { catchError, map, of, throwError, type Observable } from 'rxjs';
 import type { InvitationInfo } from '../../../shared/schemas/auth';
 import { ROLE_LABELS, personNameSchema } from '../../../shared/schemas/common';
 import { AppError } from '../errors/app-error';
@@ -14,6 +15,7 @@ import { FieldErrorPipe } from '../forms/field-error';
 import { formErrorMessage, showFieldError } from '../forms/server-errors';
 import { FIRST_PASSWORD_WORDS, PasswordPair, passwordPair } from '../forms/password-pair';
 import { zodValidator } from '../forms/validators';
+import { apiResource } from '../http/resource';
 import { AuthApi } from './auth-api';
 import { Session } from './session';
 
@@ -21,11 +23,10 @@ import { Session } from './session';
 export const INVITATION_INVALID_MESSAGE =
   'This invitation has expired or has already been used. Ask your school admin to send a new one.';
 
-type Load =
-  | { state: 'loading' }
-  | { state: 'ready'; info: InvitationInfo }
-  | { state: 'invalid' }
-  | { state: 'failed'; message: string };
+/** What the invitation's read found: one to accept, or one that cannot be used any more. */
+type Found = { state: 'ready'; info: InvitationInfo } | { state: 'invalid' };
+
+type Load = Found | { state: 'loading' } | { state: 'failed'; message: string };
 
 /** `/invitation/:token`: a new member sets their name and password and is signed in. */
 @Component({
@@ -44,7 +45,7 @@ type Load =
   templateUrl: './invitation.html',
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
-export class Invitation implements OnInit {
+export class Invitation {
   private readonly api = inject(AuthApi);
   private readonly session = inject(Session);
   private readonly router = inject(Router);
@@ -54,7 +55,16 @@ export class Invitation implements OnInit {
 
   protected readonly roleLabels = ROLE_LABELS;
   protected readonly invalidMessage = INVITATION_INVALID_MESSAGE;
-  protected readonly load = signal<Load>({ state: 'loading' });
+  /** The invitation, read again if the route's token changes. */
+  private readonly read = apiResource({
+    params: () => this.token(),
+    load: (token: string) => found(this.api.invitation(token)),
+  });
+  protected readonly load = computed<Load>(() => {
+    const error = this.read.error();
+    if (error) return { state: 'failed', message: error };
+    return this.read.value() ?? { state: 'loading' };
+  });
   protected readonly submitting = signal(false);
   protected readonly formError = signal<string | null>(null);
   protected readonly firstPassword = passwordPair(FIRST_PASSWORD_WORDS);
@@ -66,13 +76,6 @@ export class Invitation implements OnInit {
     password: this.firstPassword.password,
     confirm: this.firstPassword.confirm,
   });
-
-  ngOnInit(): void {
-    this.api.invitation(this.token()).subscribe({
-      next: (info) => this.load.set({ state: 'ready', info }),
-      error: (error: unknown) => this.load.set(this.failure(error)),
-    });
-  }
 
   protected submit(): void {
     this.formError.set(null);
@@ -87,8 +90,8 @@ export class Invitation implements OnInit {
       error: (error: unknown) => {
         this.submitting.set(false);
         if (!(error instanceof AppError)) throw error;
-        if (error.status === 404 || error.code === 'invitation-invalid') {
-          this.load.set({ state: 'invalid' });
+        if (isInvalid(error)) {
+          this.read.set({ state: 'invalid' });
         } else if (error.code === 'password-common' && error.details.length === 0) {
           showFieldError(this.form, 'password', error.message);
         } else {
@@ -97,14 +100,18 @@ export class Invitation implements OnInit {
       },
     });
   }
+}
 
-  private failure(error: unknown): Load {
-    if (
-      error instanceof AppError &&
-      (error.status === 404 || error.code === 'invitation-invalid')
-    ) {
-      return { state: 'invalid' };
-    }
-    return { state: 'failed', message: error instanceof AppError ? error.message : String(error) };
-  }
+/** An expired, used or unknown invitation is an answer the page shows, not a failed load. */
+function found(info: Observable<InvitationInfo>): Observable<Found> {
+  return info.pipe(
+    map((info): Found => ({ state: 'ready', info })),
+    catchError((error: unknown) =>
+      isInvalid(error) ? of<Found>({ state: 'invalid' }) : throwError(() => error),
+    ),
+  );
+}
+
+function isInvalid(error: unknown): boolean {
+  return error instanceof AppError && (error.status === 404 || error.code === 'invitation-invalid');
 }

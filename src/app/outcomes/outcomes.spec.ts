@@ -8,7 +8,7 @@ import { MatSelectHarness } from '@angular/material/select/testing';
 import { MatTableHarness } from '@angular/material/table/testing';
 import type { Framework, Outcome } from '../../../shared/schemas/outcomes';
 import { Session } from '../auth/session';
-import { demoUser, testProviders } from '../testing/test-providers';
+import { demoUser, settleReads, testProviders } from '../testing/test-providers';
 import { OutcomesPage, importSummary } from './outcomes';
 
 const DT = '3c9b1d2e-7f4a-4b8c-9d0e-1f2a3b4c5d6e';
@@ -73,6 +73,16 @@ describe('OutcomesPage', () => {
     return (await loader.getHarness(MatTableHarness)).getCellTextByIndex();
   }
 
+  /**
+   * Does `act` and answers the search it starts: a harness's action waits for the page to be
+   * stable, which a resource read is not until its answer arrives.
+   */
+  async function answer(act: Promise<void>, params: Record<string, string>, body: object) {
+    await settleReads();
+    search(params).flush(body);
+    await act;
+  }
+
   async function emptyRow(): Promise<string[] | undefined> {
     fixture.detectChanges();
     await fixture.whenStable();
@@ -87,6 +97,8 @@ describe('OutcomesPage', () => {
     loader = TestbedHarnessEnvironment.loader(fixture);
     fixture.detectChanges();
     backend.expectOne('/api/outcomes/frameworks').flush({ frameworks: FRAMEWORKS });
+    // The search is a resource read of the framework shown: it starts once the list has landed.
+    await settleReads();
     search({ frameworkId: DT }).flush({ outcomes: ALL, truncated: false });
     fixture.detectChanges();
     await fixture.whenStable();
@@ -120,6 +132,7 @@ describe('OutcomesPage', () => {
     await input.setValue('sensor model');
     backend.expectNone('/api/outcomes');
     await pause();
+    await settleReads();
     search({ frameworkId: DT, q: 'sensor model' }).flush({ outcomes: [ALL[2]], truncated: false });
     expect(await rows()).toEqual([
       ['KR-DT4-02', 'Use a sensor reading to change what a model does', 'Digital systems', '—'],
@@ -134,10 +147,12 @@ describe('OutcomesPage', () => {
     const submit = new Event('submit', { cancelable: true });
     form.dispatchEvent(submit);
     expect(submit.defaultPrevented).withContext('no page reload').toBeTrue();
+    await settleReads();
     search({ frameworkId: DT, q: 'wheel' }).flush({ outcomes: [], truncated: false });
     expect(await rows()).toEqual([]);
     expect(await emptyRow()).toEqual(['No outcome matches this search.']);
     await pause();
+    await settleReads();
     backend.expectNone('/api/outcomes');
   });
 
@@ -149,18 +164,27 @@ describe('OutcomesPage', () => {
       'Year 3',
       'Year 4',
     ]);
-    await selects[1]!.clickOptions({ text: 'Year 4' });
-    search({ frameworkId: DT, yearBand: 'Year 4' }).flush({ outcomes: [ALL[1]], truncated: true });
+    await answer(
+      selects[1]!.clickOptions({ text: 'Year 4' }),
+      { frameworkId: DT, yearBand: 'Year 4' },
+      { outcomes: [ALL[1]], truncated: true },
+    );
     expect((await rows()).length).toBe(1);
     expect(fixture.nativeElement.textContent).toContain('Showing the first 500 outcomes');
   });
 
   it('switches framework and drops the year band of the last one', async () => {
     const [framework, band] = await loader.getAllHarnesses(MatSelectHarness);
-    await band!.clickOptions({ text: 'Year 3' });
-    search({ frameworkId: DT, yearBand: 'Year 3' }).flush({ outcomes: [ALL[0]], truncated: false });
-    await framework!.clickOptions({ text: /Kestrel Ridge Science/ });
-    search({ frameworkId: SCI }).flush({ outcomes: [], truncated: false });
+    await answer(
+      band!.clickOptions({ text: 'Year 3' }),
+      { frameworkId: DT, yearBand: 'Year 3' },
+      { outcomes: [ALL[0]], truncated: false },
+    );
+    await answer(
+      framework!.clickOptions({ text: /Kestrel Ridge Science/ }),
+      { frameworkId: SCI },
+      { outcomes: [], truncated: false },
+    );
     expect(await emptyRow()).toEqual(['This framework has no outcomes yet.']);
     expect(await band!.getValueText()).toBe('All year bands');
   });

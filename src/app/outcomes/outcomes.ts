@@ -1,12 +1,12 @@
 import {
   ChangeDetectionStrategy,
   Component,
-  DestroyRef,
   computed,
   inject,
+  linkedSignal,
   signal,
 } from '@angular/core';
-import { takeUntilDestroyed } from '@angular/core/rxjs-interop';
+import { takeUntilDestroyed, toSignal } from '@angular/core/rxjs-interop';
 import { FormControl, ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
@@ -15,17 +15,7 @@ import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
 import { MatTableModule } from '@angular/material/table';
-import {
-  Subject,
-  catchError,
-  debounceTime,
-  distinctUntilChanged,
-  map,
-  merge,
-  of,
-  switchMap,
-  tap,
-} from 'rxjs';
+import { debounceTime } from 'rxjs';
 import {
   OUTCOME_PAGE_MAX,
   type Framework,
@@ -34,6 +24,7 @@ import {
 } from '../../../shared/schemas/outcomes';
 import { Session } from '../auth/session';
 import { Notifier } from '../errors/notifier';
+import { apiResource } from '../http/resource';
 import { FrameworkDialog } from './framework-dialog';
 import { OutcomeImportDialog, type OutcomeImportData } from './import-dialog';
 import { OutcomesApi, type OutcomeSearch } from './outcomes-api';
@@ -65,16 +56,23 @@ export class OutcomesPage {
 
   protected readonly columns = ['code', 'description', 'strand', 'yearBand'];
   protected readonly pageMax = OUTCOME_PAGE_MAX;
-  protected readonly frameworks = signal<readonly Framework[]>([]);
-  protected readonly frameworksLoaded = signal(false);
-  protected readonly frameworkId = signal('');
+  private readonly frameworksRead = apiResource({ load: () => this.api.frameworks() });
+  protected readonly frameworks = computed<readonly Framework[]>(
+    () => this.frameworksRead.value() ?? [],
+  );
+  /** True once the first read answered, either way (a reload keeps the list shown). */
+  protected readonly frameworksLoaded = computed(
+    () => this.frameworksRead.value() !== undefined || this.frameworksRead.error() !== null,
+  );
+  /** The framework shown: the one picked while it is still listed, else the first. */
+  protected readonly frameworkId = linkedSignal<readonly Framework[], string>({
+    source: this.frameworks,
+    computation: (list, previous) =>
+      list.find((f) => f.id === previous?.value)?.id ?? list[0]?.id ?? '',
+  });
   protected readonly framework = computed(
     () => this.frameworks().find((f) => f.id === this.frameworkId()) ?? null,
   );
-  protected readonly outcomes = signal<readonly Outcome[]>([]);
-  protected readonly truncated = signal(false);
-  protected readonly searching = signal(false);
-  protected readonly searchFailed = signal(false);
   /** Admins and leads may create frameworks and import (the server's `outcomes.edit`). */
   protected readonly canEdit = computed(() =>
     ['admin', 'lead'].includes(this.session.user()?.role ?? ''),
@@ -82,53 +80,52 @@ export class OutcomesPage {
 
   protected readonly q = new FormControl('', { nonNullable: true });
   protected readonly yearBand = new FormControl('', { nonNullable: true });
-  /** Runs the search now (a framework or year band picked, Enter pressed, an import done). */
-  private readonly now$ = new Subject<void>();
+  /** The search words as searched: set when typing pauses, on Enter and when cleared. */
+  private readonly words = signal('');
+  private readonly band = toSignal(this.yearBand.valueChanges, { initialValue: '' });
+  /** The search; an equal one (Enter, then the end of the typing pause) is not asked twice. */
+  private readonly query = computed<OutcomeSearch | undefined>(
+    () => {
+      const frameworkId = this.frameworkId();
+      return frameworkId ? { frameworkId, q: this.words(), yearBand: this.band() } : undefined;
+    },
+    {
+      equal: (a, b) =>
+        a?.frameworkId === b?.frameworkId && a?.q === b?.q && a?.yearBand === b?.yearBand,
+    },
+  );
+  /** The outcomes found; a newer search replaces an older one's answer still on its way. */
+  private readonly search = apiResource({
+    params: () => this.query(),
+    load: (query: OutcomeSearch) => this.api.search(query),
+  });
+  protected readonly outcomes = computed(() => this.search.value()?.outcomes ?? []);
+  protected readonly truncated = computed(() => this.search.value()?.truncated ?? false);
+  protected readonly searching = this.search.loading;
+  protected readonly searchFailed = computed(() => this.search.error() !== null);
 
   constructor() {
-    const typed$ = this.q.valueChanges.pipe(debounceTime(TYPING_PAUSE_MS));
-    merge(typed$, this.yearBand.valueChanges, this.now$)
-      .pipe(
-        map((): OutcomeSearch => ({
-          frameworkId: this.frameworkId(),
-          q: this.q.value.trim(),
-          yearBand: this.yearBand.value,
-        })),
-        // Enter followed by the end of the typing pause asks for the same search once.
-        distinctUntilChanged((a, b) => JSON.stringify(a) === JSON.stringify(b)),
-        tap(() => this.searching.set(true)),
-        switchMap((query) =>
-          query.frameworkId
-            ? this.api.search(query).pipe(catchError(() => of(null)))
-            : of({ outcomes: [], truncated: false }),
-        ),
-        takeUntilDestroyed(inject(DestroyRef)),
-      )
-      .subscribe((answer) => {
-        this.searching.set(false);
-        this.searchFailed.set(answer === null);
-        this.outcomes.set(answer?.outcomes ?? []);
-        this.truncated.set(answer?.truncated ?? false);
-      });
-    this.loadFrameworks();
+    this.q.valueChanges
+      .pipe(debounceTime(TYPING_PAUSE_MS), takeUntilDestroyed())
+      // The field's words now: a pause that ends after "Clear" must not bring the old ones back.
+      .subscribe(() => this.words.set(this.q.value.trim()));
   }
 
   protected choose(id: string): void {
     this.frameworkId.set(id);
-    // Another framework has other year bands.
-    this.yearBand.setValue('', { emitEvent: false });
-    this.now$.next();
+    // Another framework has other year bands (one search: both change before it is asked).
+    this.yearBand.setValue('');
   }
 
   /** Enter in the search field: search now, without the browser's own form submission. */
   protected searchNow(event: Event): void {
     event.preventDefault();
-    this.now$.next();
+    this.words.set(this.q.value.trim());
   }
 
   protected clearSearch(): void {
     this.q.setValue('', { emitEvent: false });
-    this.now$.next();
+    this.words.set('');
   }
 
   protected createFramework(): void {
@@ -138,8 +135,8 @@ export class OutcomesPage {
       .subscribe((created?: Framework) => {
         if (!created) return;
         this.notifier.info(`${created.name} is created. Import its outcomes from a CSV file.`);
-        this.frameworks.update((list) =>
-          [...list, created].sort((a, b) => a.name.localeCompare(b.name)),
+        this.frameworksRead.set(
+          [...this.frameworks(), created].sort((a, b) => a.name.localeCompare(b.name)),
         );
         this.choose(created.id);
         this.importCsv(created);
@@ -154,7 +151,9 @@ export class OutcomesPage {
       .subscribe((result?: OutcomeImportResult) => {
         if (!result) return;
         this.notifier.info(importSummary(result));
-        this.loadFrameworks(framework.id);
+        // Counts and year bands changed, and the outcomes: read both again (the same search too).
+        this.frameworksRead.reload();
+        this.search.reload();
       });
   }
 
@@ -170,45 +169,6 @@ export class OutcomesPage {
   }
   protected yearBandOf(o: Outcome): string {
     return o.yearBand || '—';
-  }
-
-  /** Loads the frameworks and shows `keep` (after an import) or else the first one. */
-  private loadFrameworks(keep?: string): void {
-    this.api.frameworks().subscribe({
-      next: (list) => {
-        this.frameworks.set(list);
-        this.frameworksLoaded.set(true);
-        const id = list.find((f) => f.id === (keep ?? this.frameworkId()))?.id ?? list[0]?.id ?? '';
-        this.frameworkId.set(id);
-        // The search is asked again even when its words are the same: the outcomes changed.
-        this.outcomes.set([]);
-        this.forceSearch();
-      },
-      error: () => this.frameworksLoaded.set(true),
-    });
-  }
-
-  private forceSearch(): void {
-    // distinctUntilChanged would swallow the same query: run this one directly.
-    const query: OutcomeSearch = {
-      frameworkId: this.frameworkId(),
-      q: this.q.value.trim(),
-      yearBand: this.yearBand.value,
-    };
-    if (!query.frameworkId) return;
-    this.searching.set(true);
-    this.api.search(query).subscribe({
-      next: (answer) => {
-        this.searching.set(false);
-        this.searchFailed.set(false);
-        this.outcomes.set(answer.outcomes);
-        this.truncated.set(answer.truncated);
-      },
-      error: () => {
-        this.searching.set(false);
-        this.searchFailed.set(true);
-      },
-    });
   }
 }
 
