@@ -7,7 +7,7 @@ import { MatSelectHarness } from '@angular/material/select/testing';
 import { MatTableHarness } from '@angular/material/table/testing';
 import { MatTabGroupHarness } from '@angular/material/tabs/testing';
 import type { UnitSummary } from '../../../shared/schemas/units';
-import { testProviders } from '../testing/test-providers';
+import { settleReads, testProviders } from '../testing/test-providers';
 import { UnitList } from './unit-list';
 
 /** Invented units of the invented demo school. */
@@ -52,7 +52,8 @@ describe('UnitList', () => {
     fixture = TestBed.createComponent(UnitList);
     loader = TestbedHarnessEnvironment.loader(fixture);
     fixture.detectChanges();
-    await fixture.whenStable();
+    // The lists are resource reads: the page is stable only once their answers are flushed.
+    await settleReads();
     backend.expectOne('/api/school/teachers').flush({
       teachers: [{ id: 'owner-sam', name: 'Sam Kowhai', email: 'teacher@kestrel-ridge.example' }],
     });
@@ -61,6 +62,16 @@ describe('UnitList', () => {
   });
 
   afterEach(() => backend.verify());
+
+  /**
+   * Does `act` and answers the list read it starts: a harness's action waits for the page to be
+   * stable, which a resource read is not until its answer arrives.
+   */
+  async function answer(act: Promise<void>, url: string, units: UnitSummary[]): Promise<void> {
+    await settleReads();
+    backend.expectOne(url).flush({ units });
+    await act;
+  }
 
   it('shows my units in a table', async () => {
     const rows = await (await loader.getHarness(MatTableHarness)).getCellTextByColumnName();
@@ -76,11 +87,9 @@ describe('UnitList', () => {
 
   it('loads the school library from its tab', async () => {
     const tabs = await loader.getHarness(MatTabGroupHarness);
-    await tabs.selectTab({ label: 'School library' });
-    await fixture.whenStable();
-    backend
-      .expectOne('/api/units?scope=library')
-      .flush({ units: [summary({ id: 'u-9', title: 'Bridges That Hold', canEdit: false })] });
+    await answer(tabs.selectTab({ label: 'School library' }), '/api/units?scope=library', [
+      summary({ id: 'u-9', title: 'Bridges That Hold', canEdit: false }),
+    ]);
     await fixture.whenStable();
     const rows = await (await loader.getHarness(MatTableHarness)).getCellTextByColumnName();
     expect(rows['title'].text).toEqual(['Bridges That Hold']);
@@ -89,32 +98,32 @@ describe('UnitList', () => {
   it('sends the year level, term, status, owner and search filters', async () => {
     const [year, term, status, owner] = await loader.getAllHarnesses(MatSelectHarness);
     await year.open();
-    await year.clickOptions({ text: 'Year 4' });
-    await fixture.whenStable();
-    backend.expectOne('/api/units?scope=mine&yearLevel=4').flush({ units: MINE });
+    await answer(year.clickOptions({ text: 'Year 4' }), '/api/units?scope=mine&yearLevel=4', MINE);
     await term.open();
-    await term.clickOptions({ text: 'Term 3' });
-    await fixture.whenStable();
-    backend.expectOne('/api/units?scope=mine&yearLevel=4&term=3').flush({ units: MINE });
+    await answer(
+      term.clickOptions({ text: 'Term 3' }),
+      '/api/units?scope=mine&yearLevel=4&term=3',
+      MINE,
+    );
     await status.open();
-    await status.clickOptions({ text: 'Endorsed' });
-    await fixture.whenStable();
-    backend
-      .expectOne('/api/units?scope=mine&yearLevel=4&term=3&status=endorsed')
-      .flush({ units: [MINE[1]] });
+    await answer(
+      status.clickOptions({ text: 'Endorsed' }),
+      '/api/units?scope=mine&yearLevel=4&term=3&status=endorsed',
+      [MINE[1]],
+    );
     await owner.open();
-    await owner.clickOptions({ text: 'Sam Kowhai' });
-    await fixture.whenStable();
-    backend
-      .expectOne('/api/units?scope=mine&yearLevel=4&term=3&status=endorsed&owner=owner-sam')
-      .flush({ units: [MINE[1]] });
+    await answer(
+      owner.clickOptions({ text: 'Sam Kowhai' }),
+      '/api/units?scope=mine&yearLevel=4&term=3&status=endorsed&owner=owner-sam',
+      [MINE[1]],
+    );
     const search = await loader.getHarness(MatInputHarness.with({ selector: '[type=search]' }));
-    await search.setValue('gates');
-    await fixture.whenStable();
-    // setValue types letter by letter; switchMap cancels all but the last request.
-    backend
-      .expectOne('/api/units?scope=mine&yearLevel=4&term=3&status=endorsed&owner=owner-sam&q=gates')
-      .flush({ units: [MINE[1]] });
+    // setValue types letter by letter; the resource cancels all but the last request.
+    await answer(
+      search.setValue('gates'),
+      '/api/units?scope=mine&yearLevel=4&term=3&status=endorsed&owner=owner-sam&q=gates',
+      [MINE[1]],
+    );
     await fixture.whenStable();
     const rows = await (await loader.getHarness(MatTableHarness)).getCellTextByColumnName();
     expect(rows['title'].text).toEqual(['Smart Gates']);
@@ -122,9 +131,7 @@ describe('UnitList', () => {
 
   it('says so when nothing matches', async () => {
     const search = await loader.getHarness(MatInputHarness.with({ selector: '[type=search]' }));
-    await search.setValue('x');
-    await fixture.whenStable();
-    backend.expectOne('/api/units?scope=mine&q=x').flush({ units: [] });
+    await answer(search.setValue('x'), '/api/units?scope=mine&q=x', []);
     await fixture.whenStable();
     expect((fixture.nativeElement as HTMLElement).textContent).toContain(
       'No unit matches these filters.',

@@ -2,12 +2,11 @@ import { DatePipe } from '@angular/common';
 import {
   ChangeDetectionStrategy,
   Component,
-  DestroyRef,
   computed,
   inject,
+  linkedSignal,
   signal,
 } from '@angular/core';
-import { takeUntilDestroyed, toObservable } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
@@ -17,7 +16,6 @@ import { MatSelectModule } from '@angular/material/select';
 import { MatTableModule } from '@angular/material/table';
 import { MatTabsModule } from '@angular/material/tabs';
 import { RouterLink } from '@angular/router';
-import { catchError, of, switchMap, tap } from 'rxjs';
 import {
   UNIT_STATUSES,
   UNIT_STATUS_LABELS,
@@ -28,6 +26,7 @@ import { TERMS, YEAR_LEVELS, yearLabel } from './labels';
 import { UnitsApi, type TeacherRef, type UnitFilters } from './units-api';
 import { CopyDialog, copyDialogData } from './copy-dialog';
 import { Session } from '../auth/session';
+import { apiResource } from '../http/resource';
 import { MatDialog } from '@angular/material/dialog';
 
 /** `/units`: "My units" and the school library, filtered by year level, term, status and text. */
@@ -85,10 +84,7 @@ export class UnitList {
   protected readonly term = signal<number | null>(null);
   protected readonly status = signal<UnitStatus | null>(null);
   protected readonly owner = signal<string | null>(null);
-  protected readonly teachers = signal<readonly TeacherRef[]>([]);
   protected readonly q = signal('');
-  protected readonly loading = signal(true);
-  protected readonly units = signal<readonly UnitSummary[]>([]);
 
   private readonly filters = computed<UnitFilters>(() => ({
     scope: this.scope(),
@@ -99,25 +95,22 @@ export class UnitList {
     q: this.q(),
   }));
 
-  constructor() {
-    this.api
-      .teachers()
-      .pipe(catchError(() => of([] as TeacherRef[])))
-      .subscribe((list) => this.teachers.set(list));
-    // switchMap: typing in the search box drops the answers of the earlier letters.
-    toObservable(this.filters)
-      .pipe(
-        tap(() => this.loading.set(true)),
-        switchMap((filters) =>
-          this.api.list(filters).pipe(catchError(() => of(null as UnitSummary[] | null))),
-        ),
-        takeUntilDestroyed(inject(DestroyRef)),
-      )
-      .subscribe((units) => {
-        this.loading.set(false);
-        if (units) this.units.set(units);
-      });
-  }
+  /** The owner filter's choices; without them the filter offers only "Anyone". */
+  private readonly teachersRead = apiResource({ load: () => this.api.teachers() });
+  protected readonly teachers = computed<readonly TeacherRef[]>(
+    () => this.teachersRead.value() ?? [],
+  );
+  /** The units of the filters; typing drops the answers of the earlier letters. */
+  private readonly read = apiResource({
+    params: () => this.filters(),
+    load: (filters: UnitFilters) => this.api.list(filters),
+  });
+  protected readonly loading = this.read.loading;
+  /** The list shown: the last one read, kept while the next loads (or if it fails to). */
+  protected readonly units = linkedSignal<UnitSummary[] | undefined, readonly UnitSummary[]>({
+    source: this.read.value,
+    computation: (units, previous) => units ?? previous?.value ?? [],
+  });
 
   /** Whether the signed-in teacher co-authors (and does not own) the unit. */
   protected coauthored(unit: UnitSummary): boolean {
