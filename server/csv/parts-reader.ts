@@ -1,9 +1,11 @@
 /**
- * Reads a parts-list CSV (RFC 4180, the format of API.md) into parts, or into every problem it
- * has, each with the line it starts on and its column. Nothing here touches the database: the
- * route imports the parts only when the list of problems is empty.
+ * Reads a parts-list CSV (RFC 4180, the format of API.md) into parts, or into its problems, each
+ * with the line it starts on and its column. Nothing here touches the database: the route imports
+ * the parts only when there is no problem. The text is parsed as a stream (csv-parse's stream
+ * API) that stops at the limits and gives the event loop back every few hundred records, so a
+ * large or hostile file neither holds other requests up nor grows an answer without bound.
  */
-import { CsvError, parse } from 'csv-parse/sync';
+import { CsvError, parse, type Parser } from 'csv-parse';
 import type { ApiErrorDetail } from '../../shared/schemas/common.js';
 import {
   MAX_PARTS,
@@ -24,10 +26,25 @@ import {
   type PartsColumn,
 } from './columns.js';
 
+/** At most this many problems are listed (the count says how many there were). */
+export const MAX_LISTED_PROBLEMS = 100;
+/** A header wider than this is not a parts list (API.md names 8 columns); reading stops. */
+export const MAX_COLUMNS = 64;
+/** Characters of one record; a longer one is not a parts-list line (common practice, no published source). */
+const MAX_RECORD_CHARS = 64 * 1024;
+/** Records parsed between two turns of the event loop. */
+const RECORDS_PER_TURN = 250;
+
 export interface PartsCsvResult {
   parts: PartValues[];
-  /** Every problem found; when any, nothing may be imported. `path` is empty (a file, not JSON). */
+  /**
+   * The first `MAX_LISTED_PROBLEMS` problems; when any, nothing may be imported. `path` is empty
+   * (a file, not JSON).
+   */
   errors: ApiErrorDetail[];
+  /** How many problems there were in all, and on how many lines. */
+  problemCount: number;
+  problemLines: number;
 }
 
 interface Row {
@@ -42,44 +59,57 @@ const problem = (line: number, column: string, message: string): ApiErrorDetail 
   message,
 });
 
-/** Splits the text into records with the (1-based) line each one starts on. */
-function records(text: string): Row[] {
+type Parsed = { record: string[]; info: { lines: number }; raw: string };
+
+const notCsv = (err: CsvError): HttpError => {
+  const line = typeof err['lines'] === 'number' ? err['lines'] : 1;
+  const message =
+    err.code === 'CSV_QUOTE_NOT_CLOSED'
+      ? 'A quoted value is never closed: add the closing quote mark.'
+      : err.code === 'CSV_MAX_RECORD_SIZE'
+        ? 'This line is far too long for a parts list: is it the right file?'
+        : 'A quote mark is out of place: put quotes around the whole value, ' +
+          'and double any quote inside it ("").';
+  return new HttpError(
+    422,
+    'csv-invalid',
+    `The file is not valid CSV (line ${line}). Nothing was imported.`,
+    [problem(line, '', message)],
+  );
+};
+
+/** Yields the records of the text with the (1-based) line each one starts on. */
+async function* records(text: string): AsyncGenerator<Row> {
   // One kind of line break for the parser: CRLF, LF and a lone CR all end a line (RFC 4180 §2
   // writes CRLF; files saved on other systems use LF). A line break inside quotes becomes LF.
   const normalised = text.replace(/\r\n?/g, '\n');
-  let parsed: { record: string[]; info: { lines: number }; raw: string }[];
-  try {
-    // With `info` and `raw` set, csv-parse returns wrapped records; its types do not say so.
-    parsed = parse(normalised, {
-      bom: true,
-      info: true,
-      raw: true,
-      record_delimiter: '\n',
-      relax_column_count: true,
-      skip_empty_lines: true,
-    }) as unknown as typeof parsed;
-  } catch (err) {
-    if (err instanceof CsvError) {
-      const line = typeof err['lines'] === 'number' ? err['lines'] : 1;
-      const message =
-        err.code === 'CSV_QUOTE_NOT_CLOSED'
-          ? 'A quoted value is never closed: add the closing quote mark.'
-          : 'A quote mark is out of place: put quotes around the whole value, ' +
-            'and double any quote inside it ("").';
-      throw new HttpError(
-        422,
-        'csv-invalid',
-        `The file is not valid CSV (line ${line}). Nothing was imported.`,
-        [problem(line, '', message)],
-      );
-    }
-    throw err;
-  }
-  return parsed.map(({ record, info, raw }) => {
-    // `info.lines` is where the record ends; `raw` holds its text, after any skipped blank lines.
-    const body = raw.replace(/^\n+/, '').replace(/\n$/, '');
-    return { line: info.lines - (body.match(/\n/g)?.length ?? 0), cells: record };
+  // With `info` and `raw` set, csv-parse gives wrapped records; its types do not say so.
+  const parser: Parser = parse({
+    bom: true,
+    info: true,
+    raw: true,
+    record_delimiter: '\n',
+    relax_column_count: true,
+    skip_empty_lines: true,
+    max_record_size: MAX_RECORD_CHARS,
   });
+  parser.end(normalised);
+  let count = 0;
+  try {
+    for await (const parsed of parser as AsyncIterable<Parsed>) {
+      const { record, info, raw } = parsed;
+      // `info.lines` is where the record ends; `raw` holds its text, after any skipped blank lines.
+      const body = raw.replace(/^\n+/, '').replace(/\n$/, '');
+      yield { line: info.lines - (body.match(/\n/g)?.length ?? 0), cells: record };
+      if (++count % RECORDS_PER_TURN === 0) await new Promise((done) => setImmediate(done));
+    }
+  } catch (err) {
+    if (err instanceof CsvError) throw notCsv(err);
+    throw err;
+  } finally {
+    // A reader that stopped early (a limit) ends the parse too.
+    parser.destroy();
+  }
 }
 
 interface Header {
@@ -194,44 +224,89 @@ function readRow(
   return errors.length === before && checked.success ? checked.data : null;
 }
 
-/**
- * Reads the text of a parts-list CSV. Throws 413 over `MAX_PARTS` rows and 422 when the text is
- * not CSV at all; returns the parts, or every row problem (header problems on line 1).
- */
-export function readPartsCsv(text: string): PartsCsvResult {
-  const rows = records(text).filter((r) => r.cells.some((c) => c.trim() !== ''));
-  const errors: ApiErrorDetail[] = [];
-  const [header, ...data] = rows;
-  if (!header)
-    return {
-      parts: [],
-      errors: [problem(1, '', 'The file is empty: its first line must name the columns.')],
-    };
-  if (data.length > MAX_PARTS) {
-    throw new HttpError(
-      413,
-      'too-many-rows',
-      `The file has ${data.length} rows; a parts list has at most ` +
-        `${MAX_PARTS.toLocaleString('en')}.`,
-    );
+/** Collects problems, listing the first `MAX_LISTED_PROBLEMS` and counting all. */
+class Problems {
+  readonly listed: ApiErrorDetail[] = [];
+  count = 0;
+  readonly lines = new Set<number>();
+  push(...found: ApiErrorDetail[]): void {
+    for (const p of found) {
+      this.count++;
+      this.lines.add(p.line ?? 0);
+      if (this.listed.length < MAX_LISTED_PROBLEMS) this.listed.push(p);
+    }
   }
-  const head = readHeader(header, errors);
-  const { at } = head;
-  if (data.length === 0)
-    errors.push(problem(header.line, '', 'The file has a header but no parts below it.'));
+  result(parts: PartValues[]): PartsCsvResult {
+    return {
+      parts: this.count ? [] : parts,
+      errors: this.listed,
+      problemCount: this.count,
+      problemLines: this.lines.size,
+    };
+  }
+}
+
+const tooMany = () =>
+  new HttpError(
+    413,
+    'too-many-rows',
+    `The file has more than ${MAX_PARTS.toLocaleString('en')} rows, the most a parts list ` +
+      'may have. Nothing was imported.',
+  );
+
+/**
+ * Reads the text of a parts-list CSV. Throws 413 past `MAX_PARTS` rows (as soon as the row after
+ * the last allowed one is read) and 422 when the text is not CSV; returns the parts, or the
+ * problems (header problems on its line).
+ */
+export async function readPartsCsv(text: string): Promise<PartsCsvResult> {
+  const problems = new Problems();
   const parts: PartValues[] = [];
   const firstLine = new Map<string, number>();
-  for (const row of data) {
-    const part = readRow(row, head, errors);
+  let head: Header | undefined;
+  let headerLine = 1;
+  let rows = 0;
+  for await (const row of records(text)) {
+    if (!row.cells.some((c) => c.trim() !== '')) continue;
+    if (!head) {
+      headerLine = row.line;
+      if (row.cells.length > MAX_COLUMNS) {
+        problems.push(
+          problem(
+            row.line,
+            '',
+            `The first line has ${row.cells.length.toLocaleString('en')} columns; a parts list ` +
+              `has at most ${PARTS_COLUMNS.length}: ${PARTS_COLUMNS.join(', ')}.`,
+          ),
+        );
+        return problems.result([]);
+      }
+      const headerProblems: ApiErrorDetail[] = [];
+      head = readHeader(row, headerProblems);
+      problems.push(...headerProblems);
+      continue;
+    }
+    if (++rows > MAX_PARTS) throw tooMany();
+    const rowProblems: ApiErrorDetail[] = [];
+    const part = readRow(row, head, rowProblems);
+    const { at } = head;
     const rawCode = at.has('code') ? unguardFormula((row.cells[at.get('code')!] ?? '').trim()) : '';
     const code = part?.code ?? rawCode;
     if (code) {
       const seen = firstLine.get(code);
       if (seen !== undefined)
-        errors.push(problem(row.line, 'code', `The code ${code} is already used on line ${seen}.`));
+        rowProblems.push(
+          problem(row.line, 'code', `The code ${code} is already used on line ${seen}.`),
+        );
       else firstLine.set(code, row.line);
     }
-    if (part) parts.push(part);
+    problems.push(...rowProblems);
+    if (part && rowProblems.length === 0) parts.push(part);
   }
-  return { parts: errors.length ? [] : parts, errors };
+  if (!head) {
+    problems.push(problem(1, '', 'The file is empty: its first line must name the columns.'));
+  } else if (rows === 0) {
+    problems.push(problem(headerLine, '', 'The file has a header but no parts below it.'));
+  }
+  return problems.result(parts);
 }

@@ -126,14 +126,20 @@ export function kitTypesRouter(ctx: AppContext): Router {
       const file = requireFile(req);
       await sniffUpload(file.buffer, ['text/csv']);
       // The sniff proved the bytes are UTF-8; TextDecoder drops a leading byte-order mark.
-      const { parts: list, errors } = readPartsCsv(new TextDecoder('utf-8').decode(file.buffer));
-      if (errors.length) {
-        const lines = new Set(errors.map((e) => e.line)).size;
+      const read = await readPartsCsv(new TextDecoder('utf-8').decode(file.buffer));
+      const list = read.parts;
+      if (read.problemCount) {
+        const lines = read.problemLines;
+        const listed =
+          read.problemCount > read.errors.length
+            ? ` The first ${read.errors.length} of its ${read.problemCount.toLocaleString('en')} problems are listed.`
+            : '';
         throw new HttpError(
           422,
           'csv-rows',
-          `${lines} ${lines === 1 ? 'line needs' : 'lines need'} attention. Nothing was imported.`,
-          errors,
+          `${lines.toLocaleString('en')} ${lines === 1 ? 'line needs' : 'lines need'} attention. ` +
+            `Nothing was imported.${listed}`,
+          read.errors,
         );
       }
       const id = kitOf(res).id;

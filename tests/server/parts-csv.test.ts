@@ -6,6 +6,7 @@ import { Browser, signedIn, testApp, type TestApp } from '../support/app.js';
 import { ADMIN, TEACHER } from '../support/planning.js';
 import { parts } from '../../server/db/schema/index.js';
 import { readPartsCsv, writePartsCsv } from '../../server/csv/index.js';
+import { MAX_LISTED_PROBLEMS } from '../../server/csv/parts-reader.js';
 import { SINGLE_LINE_MESSAGE } from '../../shared/schemas/text.js';
 
 let t: TestApp;
@@ -45,14 +46,14 @@ const partsOf = async (b: Browser, kitId: string) =>
   );
 
 describe('reading the parts-list CSV: RFC 4180 §2', () => {
-  const read = (text: string) => {
-    const result = readPartsCsv(text);
+  const read = async (text: string) => {
+    const result = await readPartsCsv(text);
     assert.deepEqual(result.errors, []);
     return result.parts;
   };
 
-  it('rule 1: records end with CRLF; rule 2: the last record may have none', () => {
-    const list = read('code,name,qty\r\nA,Axle,2\r\nB,Spacer ring,3');
+  it('rule 1: records end with CRLF; rule 2: the last record may have none', async () => {
+    const list = await read('code,name,qty\r\nA,Axle,2\r\nB,Spacer ring,3');
     assert.deepEqual(
       list.map((p) => [p.code, p.name, p.qty]),
       [
@@ -62,34 +63,34 @@ describe('reading the parts-list CSV: RFC 4180 §2', () => {
     );
   });
 
-  it('LF line ends are read the same (common practice, no published source: files saved on Unix-like systems)', () => {
+  it('LF line ends are read the same (common practice, no published source: files saved on Unix-like systems)', async () => {
     assert.deepEqual(
-      read('code,name,qty\nA,Axle,2\nB,Spacer ring,3\n'),
-      read('code,name,qty\r\nA,Axle,2\r\nB,Spacer ring,3\r\n'),
+      await read('code,name,qty\nA,Axle,2\nB,Spacer ring,3\n'),
+      await read('code,name,qty\r\nA,Axle,2\r\nB,Spacer ring,3\r\n'),
     );
   });
 
-  it('rule 6: a field holding a comma is enclosed in double quotes', () => {
-    assert.equal(read('code,name,qty\r\nA,"Strut, 96 mm",4\r\n')[0]!.name, 'Strut, 96 mm');
+  it('rule 6: a field holding a comma is enclosed in double quotes', async () => {
+    assert.equal((await read('code,name,qty\r\nA,"Strut, 96 mm",4\r\n'))[0]!.name, 'Strut, 96 mm');
   });
 
-  it('rule 7: a double quote inside a quoted field is doubled', () => {
+  it('rule 7: a double quote inside a quoted field is doubled', async () => {
     assert.equal(
-      read('code,name,qty\r\nA,"Plate ""wide"" 2x4",4\r\n')[0]!.name,
+      (await read('code,name,qty\r\nA,"Plate ""wide"" 2x4",4\r\n'))[0]!.name,
       'Plate "wide" 2x4',
     );
   });
 
-  it('rule 6: a field holding line breaks is enclosed in quotes; the line numbers of later rows stay right', () => {
+  it('rule 6: a field holding line breaks is enclosed in quotes; the line numbers of later rows stay right', async () => {
     const text = 'code,name,qty\r\nA,"Two\r\nlines",1\r\nB,"Three\nshort\nlines",x\r\n';
     // Read as one field of one record (RFC 4180), then refused: a part name is one line
     // (shared/schemas/text.ts singleLine), reported on the line where the record starts.
-    const one = readPartsCsv('code,name,qty\r\nA,"Two\r\nlines",1\r\n');
+    const one = await readPartsCsv('code,name,qty\r\nA,"Two\r\nlines",1\r\n');
     assert.deepEqual(
       one.errors.map((e) => [e.line, e.column, e.message]),
       [[2, 'name', SINGLE_LINE_MESSAGE]],
     );
-    const bad = readPartsCsv(text);
+    const bad = await readPartsCsv(text);
     // Line 1 header, lines 2–3 part A, part B starts on line 4.
     assert.deepEqual(
       bad.errors.map((e) => [e.line, e.column]),
@@ -101,8 +102,8 @@ describe('reading the parts-list CSV: RFC 4180 §2', () => {
     );
   });
 
-  it('rule 3: the header names the columns; here in any order and any capitals (API.md)', () => {
-    const list = read(
+  it('rule 3: the header names the columns; here in any order and any capitals (API.md)', async () => {
+    const list = await read(
       'QTY,Small,Name,CODE,Charge_Minutes,category,Colour,compartment\r\n2,yes,Hub,H1,180,Controller,blue,B2\r\n',
     );
     assert.deepEqual(list, [
@@ -119,22 +120,22 @@ describe('reading the parts-list CSV: RFC 4180 §2', () => {
     ]);
   });
 
-  it('rule 5: fields may be quoted or not, with the same value', () => {
+  it('rule 5: fields may be quoted or not, with the same value', async () => {
     assert.deepEqual(
-      read('"code","name","qty"\r\n"A","Axle","2"\r\n'),
-      read('code,name,qty\r\nA,Axle,2\r\n'),
+      await read('"code","name","qty"\r\n"A","Axle","2"\r\n'),
+      await read('code,name,qty\r\nA,Axle,2\r\n'),
     );
   });
 
-  it('a UTF-8 byte-order mark (EF BB BF, RFC 3629 §6) before the header is ignored', () => {
+  it('a UTF-8 byte-order mark (EF BB BF, RFC 3629 §6) before the header is ignored', async () => {
     assert.deepEqual(
-      read(`${BOM}code,name,qty\r\nA,Axle,2\r\n`),
-      read('code,name,qty\r\nA,Axle,2\r\n'),
+      await read(`${BOM}code,name,qty\r\nA,Axle,2\r\n`),
+      await read('code,name,qty\r\nA,Axle,2\r\n'),
     );
   });
 
-  it('small is yes/no, true/false, 1/0 or empty; empty charge_minutes is not rechargeable (API.md)', () => {
-    const list = read(
+  it('small is yes/no, true/false, 1/0 or empty; empty charge_minutes is not rechargeable (API.md)', async () => {
+    const list = await read(
       'code,name,qty,small,charge_minutes\n' +
         ['a,yes', 'b,No', 'c,TRUE', 'd,false', 'e,1', 'f,0', 'g,']
           .map((x) => `${x.split(',')[0]},n,1,${x.split(',')[1]},`)
@@ -145,10 +146,14 @@ describe('reading the parts-list CSV: RFC 4180 §2', () => {
       [true, false, true, false, true, false, false],
     );
     assert.ok(list.every((p) => p.chargeMinutes === null));
-    assert.equal(read('code,name,qty\nA,n,1\n')[0]!.category, 'other', 'no category column: other');
+    assert.equal(
+      (await read('code,name,qty\nA,n,1\n'))[0]!.category,
+      'other',
+      'no category column: other',
+    );
   });
 
-  it('every bad row is reported with its line and column, and no parts are returned', () => {
+  it('every bad row is reported with its line and column, and no parts are returned', async () => {
     const text = [
       'code,name,qty,category,small,charge_minutes,shelf',
       'A,Axle,2,axle,no,,',
@@ -158,7 +163,7 @@ describe('reading the parts-list CSV: RFC 4180 §2', () => {
       ',,,,,,',
       'D,,7,gear,,0,',
     ].join('\r\n');
-    const result = readPartsCsv(text);
+    const result = await readPartsCsv(text);
     assert.deepEqual(result.parts, []);
     assert.deepEqual(
       result.errors.map((e) => [e.line, e.column]),
@@ -180,8 +185,8 @@ describe('reading the parts-list CSV: RFC 4180 §2', () => {
     assert.match(result.errors[5]!.message, /whole number/);
   });
 
-  it('a required column missing is one problem on the header', () => {
-    const result = readPartsCsv('code,name\r\nA,Axle\r\n');
+  it('a required column missing is one problem on the header', async () => {
+    const result = await readPartsCsv('code,name\r\nA,Axle\r\n');
     assert.deepEqual(
       result.errors.map((e) => [e.line, e.column]),
       [[1, 'qty']],
@@ -223,7 +228,7 @@ describe('writing the parts-list CSV', () => {
     },
   ];
 
-  it('writes RFC 4180 §2 records (CRLF, quotes doubled), read back the same by csv-parse', () => {
+  it('writes RFC 4180 §2 records (CRLF, quotes doubled), read back the same by csv-parse', async () => {
     const text = writePartsCsv(list);
     assert.ok(text.startsWith(BOM));
     assert.ok(text.includes('\r\nW-1,"Wheel, ""large""",black,wheel,4,C1,no,\r\n'));
@@ -241,7 +246,7 @@ describe('writing the parts-list CSV', () => {
     assert.deepEqual(rows[2], ['W-2', 'Cable\nwith a break', '', 'cable', '2', '', 'yes', '45']);
   });
 
-  it('puts an apostrophe before text a spreadsheet would run as a formula (OWASP, "CSV Injection")', () => {
+  it('puts an apostrophe before text a spreadsheet would run as a formula (OWASP, "CSV Injection")', async () => {
     const rows = parse(writePartsCsv(list), { bom: true }) as string[][];
     assert.deepEqual(rows[3]!.slice(0, 6), [
       "'-W3",
@@ -253,9 +258,14 @@ describe('writing the parts-list CSV', () => {
     ]);
   });
 
-  it('reads back exactly what it wrote (names of one line)', () => {
+  it('reads back exactly what it wrote (names of one line)', async () => {
     const oneLine = list.map((p) => ({ ...p, name: p.name.replace(/\n/g, ' ') }));
-    assert.deepEqual(readPartsCsv(writePartsCsv(oneLine)), { parts: oneLine, errors: [] });
+    assert.deepEqual(await readPartsCsv(writePartsCsv(oneLine)), {
+      parts: oneLine,
+      errors: [],
+      problemCount: 0,
+      problemLines: 0,
+    });
   });
 });
 
@@ -376,6 +386,66 @@ describe('POST /api/kit-types/:id/parts/import', () => {
       (await t.database.db.select().from(parts).where(eq(parts.kitTypeId, kit))).length,
       5000,
     );
+  });
+
+  it('a hostile file gets a short answer: 100,000 columns, thousands of problems, one endless line', async () => {
+    const admin = await signedIn(t.app, ADMIN);
+    const kit = await newKit(admin, 'Hostile Kit');
+    const wide = await importCsv(
+      admin,
+      kit,
+      `${Array.from({ length: 100_000 }, (_, i) => `c${i}`).join(',')}\nA\n`,
+    );
+    assert.equal(wide.status, 422);
+    assert.equal(wide.body.error.details.length, 1);
+    assert.ok(wide.text.length < 4_000, `answer of ${wide.text.length} characters`);
+    const thousand = await importCsv(
+      admin,
+      kit,
+      `${Array.from({ length: 1000 }, (_, i) => `c${i}`).join(',')}\nA\n`,
+    );
+    assert.equal(thousand.status, 422);
+    assert.deepEqual(
+      thousand.body.error.details.map((d: { message: string }) => /1,000 columns/.test(d.message)),
+      [true],
+    );
+
+    // 5,000 rows with 12 problems each: the first 100 are listed, the count tells the rest.
+    const badRow = (i: number) => `P-${i % 7},n,-1,gizmo,maybe,-3,,`;
+    const rows = Array.from({ length: 5000 }, (_, i) => badRow(i));
+    const many = await importCsv(
+      admin,
+      kit,
+      `code,name,qty,category,small,charge_minutes,colour,compartment\n${rows.join('\n')}\n`,
+    );
+    assert.equal(many.status, 422);
+    assert.equal(many.body.error.details.length, MAX_LISTED_PROBLEMS);
+    assert.match(many.body.error.message, /^5,000 lines need attention\./);
+    assert.match(many.body.error.message, /The first 100 of its [\d,]+ problems are listed\./);
+
+    const endless = await importCsv(admin, kit, `code,name,qty\nA,${'y'.repeat(200_000)},1\n`);
+    assert.equal(endless.status, 422);
+    assert.equal(endless.body.error.code, 'csv-invalid');
+    assert.equal(
+      (await t.database.db.select().from(parts).where(eq(parts.kitTypeId, kit))).length,
+      0,
+      'nothing imported',
+    );
+  });
+
+  // A reader that never yields would run a timer queued before it only after it finished
+  // (Node.js event loop: setImmediate callbacks run in the check phase between macrotasks).
+  it('reading a large file gives the event loop back while it parses', async () => {
+    const rows = Array.from({ length: 5000 }, (_, i) => `P-${i},Part ${i},1`);
+    let ranDuring = false;
+    let finished = false;
+    setImmediate(() => {
+      ranDuring = !finished;
+    });
+    const read = await readPartsCsv(`code,name,qty\n${rows.join('\n')}\n`);
+    finished = true;
+    assert.equal(read.parts.length, 5000);
+    assert.ok(ranDuring, 'a callback queued before the read ran while it was reading');
   });
 
   it('no file is 400; a relief teacher is 403; anonymous 401; another school 404', async () => {
