@@ -10,6 +10,7 @@ import type { LessonPrep } from '../../shared/prep/index.js';
 import { prepTickUpdateSchema, type PrepTicks } from '../../shared/schemas/prep-ticks.js';
 import { notPlannable, planLesson } from '../prep/plan-lesson.js';
 import { readTicks, setTick } from '../prep/ticks.js';
+import { planTag } from '../prep/plan-tag.js';
 
 /** The lesson's plan as stored now (404 when gone, 422 when the engine refuses it). */
 async function plannedLesson(tx: Tx, id: string) {
@@ -32,8 +33,23 @@ export function prepRouter(ctx: AppContext): Router {
   router.get('/:id/prep', async (req, res) => {
     const actor = requireActor(req);
     const { id } = parseParams(idParamsSchema, req);
+    // The browser keeps the plan and asks again with If-None-Match (RFC 9111 §5.2.2.4 no-cache;
+    // RFC 9110 §13.1.2): an unchanged plan costs the access check and one digest query.
+    res.setHeader('Cache-Control', 'private, no-cache');
+    // Access and tag outside a transaction (two queries, no BEGIN/COMMIT): a plan computed
+    // afterwards in its own snapshot is as new as the tag or newer, never older, so a 304 never
+    // confirms a plan older than the data (a newer one only costs one more full answer).
+    await readableLesson(ctx.db, actor, id);
+    const tag = await planTag(ctx.db, id);
+    if (tag) {
+      res.setHeader('ETag', tag);
+      // req.fresh compares If-None-Match with the ETag just set (Express, RFC 9110 §13.1.2).
+      if (req.fresh) {
+        res.status(304).end();
+        return;
+      }
+    }
     const answer: LessonPrep = await snapshot(async (tx) => {
-      await readableLesson(tx, actor, id);
       const { plan, partNames, parts } = await plannedLesson(tx, id);
       const ticks = await readTicks(
         tx,
