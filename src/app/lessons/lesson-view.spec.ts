@@ -39,6 +39,9 @@ describe('LessonView', () => {
     backend.expectOne('/api/lessons/lesson-2').flush(workedExampleLesson());
     // The prep answer names each part with its colour and compartment: no kit type is fetched.
     backend.expectOne('/api/lessons/lesson-2/prep').flush(workedExamplePrep(plan));
+    // The lesson's comments (read with its unit's, none on it yet).
+    await settleReads();
+    backend.expectOne('/api/units/unit-rovers/comments').flush({ comments: [] });
     await fixture.whenStable();
     // An author sees the lesson's share links.
     backend.expectOne('/api/lessons/lesson-2/share-links').flush({

@@ -24,6 +24,7 @@ import { Notifier } from '../errors/notifier';
 import { CAUTIONS_DEFER, SAFETY_CAUTIONS } from './cautions';
 import { BuildInstructions } from './build-instructions';
 import { ShareLinks } from '../share/share-links';
+import { LessonComments } from '../review/lesson-comments';
 import { clockTime, dayLabel } from './clock';
 import { groupSizeFor } from './group-size';
 import { LessonsApi, type Printable } from './lessons-api';
@@ -58,6 +59,7 @@ interface Conflict {
     ShareLinks,
     TrayBoard,
     PrepTasks,
+    LessonComments,
   ],
   templateUrl: './lesson-view.html',
   styleUrl: './lesson-view.scss',

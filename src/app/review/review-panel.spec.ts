@@ -61,13 +61,12 @@ const COMMENTS: UnitComment[] = [
   },
 ];
 
-async function render(actions: string[], lessonId: string | null = null) {
+async function render(actions: string[]) {
   TestBed.configureTestingModule({ providers: [testProviders(), provideMarkdown()] });
   const backend = TestBed.inject(HttpTestingController);
   const fixture = TestBed.createComponent(ReviewPanel);
   fixture.componentRef.setInput('unit', UNIT);
   fixture.componentRef.setInput('actions', actions);
-  fixture.componentRef.setInput('lessonId', lessonId);
   const changed: Unit[] = [];
   fixture.componentInstance.changed.subscribe((u) => changed.push(u));
   fixture.detectChanges();
@@ -91,12 +90,6 @@ describe('ReviewPanel', () => {
     expect((window as unknown as { commentRan?: boolean }).commentRan).toBeUndefined();
     expect(el.textContent).toContain('requested changes');
     expect(el.textContent).toContain('on Meet the rover');
-  });
-
-  it('on a lesson, shows only that lesson’s comments', async () => {
-    const { el } = await render([], 'l-1');
-    expect(el.querySelectorAll('.comments li').length).toBe(1);
-    expect(el.textContent).toContain('Lesson one needs spare motors.');
   });
 
   it('sends for review with the version read and an optional message', async () => {

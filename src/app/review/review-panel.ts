@@ -13,7 +13,6 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
-import { MarkdownComponent } from 'ngx-markdown';
 import {
   commentBodySchema,
   type ReviewAction,
@@ -23,19 +22,19 @@ import { UNIT_STATUS_LABELS, unitSchema, type Unit } from '../../../shared/schem
 import { AppError } from '../errors/app-error';
 import { Notifier } from '../errors/notifier';
 import { ReviewApi } from './review-api';
-import { STEP_BUTTONS, STEP_NOTES, when } from './review-labels';
+import { CommentList } from './comment-list';
+import { STEP_BUTTONS, STEP_NOTES } from './review-labels';
 
 /**
  * A unit's review beside the unit: its status, the steps the signed-in person may take, and the
- * comments in order (Markdown, sanitised by ngx-markdown's default Angular sanitiser, so a
- * comment can never run script). With `lessonId`, only that lesson's comments, and new ones go
- * on that lesson.
+ * comments in order (Markdown, sanitised: see CommentList), a comment on the unit or one of its
+ * lessons. The lesson page shows its own comments (LessonComments).
  */
 @Component({
   selector: 'app-review-panel',
   imports: [
     ReactiveFormsModule,
-    MarkdownComponent,
+    CommentList,
     MatButtonModule,
     MatFormFieldModule,
     MatInputModule,
@@ -43,34 +42,16 @@ import { STEP_BUTTONS, STEP_NOTES, when } from './review-labels';
   ],
   template: `
     <section class="review" aria-labelledby="review-heading">
-      <h2 id="review-heading">{{ lessonId() ? 'Comments on this lesson' : 'Review' }}</h2>
-      @if (!lessonId()) {
-        <p>
-          Status: <strong class="status">{{ statusLabels[unit().status] }}</strong>
-        </p>
-        @if (unit().status === 'endorsed' && unit().canEdit) {
-          <p class="muted">Editing an endorsed unit or its lessons puts it back to draft.</p>
-        }
+      <h2 id="review-heading">Review</h2>
+      <p>
+        Status: <strong class="status">{{ statusLabels[unit().status] }}</strong>
+      </p>
+      @if (unit().status === 'endorsed' && unit().canEdit) {
+        <p class="muted">Editing an endorsed unit or its lessons puts it back to draft.</p>
       }
 
       @if (comments().length) {
-        <ol class="comments">
-          @for (c of comments(); track c.id) {
-            <li>
-              <p class="meta">
-                <strong>{{ c.author?.name ?? 'A former member' }}</strong>
-                @if (c.step) {
-                  {{ notes[c.step] }}
-                }
-                · {{ at(c.at) }}
-                @if (!lessonId() && c.lessonId) {
-                  · on {{ lessonTitle(c.lessonId) }}
-                }
-              </p>
-              <markdown class="body" [data]="c.body" />
-            </li>
-          }
-        </ol>
+        <app-comment-list [comments]="comments()" [lessons]="lessons()" />
       } @else if (loaded()) {
         <p class="muted">No comments yet.</p>
       }
@@ -83,7 +64,7 @@ import { STEP_BUTTONS, STEP_NOTES, when } from './review-labels';
           <mat-error>{{ message }}</mat-error>
         }
       </mat-form-field>
-      @if (!lessonId() && lessons().length) {
+      @if (lessons().length) {
         <mat-form-field>
           <mat-label>About</mat-label>
           <mat-select [formControl]="about">
@@ -115,20 +96,6 @@ import { STEP_BUTTONS, STEP_NOTES, when } from './review-labels';
     </section>
   `,
   styles: `
-    .comments {
-      list-style: none;
-      padding: 0;
-      margin: 0 0 1rem;
-    }
-    .comments li {
-      border-inline-start: 3px solid var(--mat-sys-outline-variant);
-      padding: 0.25rem 0 0.25rem 0.75rem;
-      margin-bottom: 0.75rem;
-    }
-    .meta {
-      margin: 0;
-      font-size: 0.9rem;
-    }
     .wide {
       width: 100%;
     }
@@ -147,24 +114,18 @@ export class ReviewPanel {
   readonly unit = input.required<Unit>();
   /** The steps the signed-in person may take now. */
   readonly actions = input<readonly ReviewAction[]>([]);
-  /** Only this lesson's comments (on the lesson page). */
-  readonly lessonId = input<string | null>(null);
   /** Emits the unit after a step (or as it now is, after a 409). */
   readonly changed = output<Unit>();
 
   protected readonly statusLabels = UNIT_STATUS_LABELS;
   protected readonly buttons = STEP_BUTTONS;
-  protected readonly notes = STEP_NOTES;
   protected readonly all = signal<UnitComment[]>([]);
   protected readonly loaded = signal(false);
   protected readonly busy = signal(false);
   protected readonly error = signal<string | null>(null);
   protected readonly textError = signal<string | null>(null);
   protected readonly lessons = computed(() => this.unit().lessons);
-  protected readonly comments = computed(() => {
-    const only = this.lessonId();
-    return only ? this.all().filter((c) => c.lessonId === only) : this.all();
-  });
+  protected readonly comments = this.all.asReadonly();
 
   protected readonly text = new FormControl('', { nonNullable: true });
   protected readonly about = new FormControl<string | null>(null);
@@ -181,14 +142,6 @@ export class ReviewPanel {
       },
       error: () => this.loaded.set(true),
     });
-  }
-
-  protected at(iso: string): string {
-    return when(iso);
-  }
-
-  protected lessonTitle(id: string): string {
-    return this.unit().lessons.find((l) => l.id === id)?.title ?? 'a lesson';
   }
 
   /**
@@ -210,7 +163,7 @@ export class ReviewPanel {
   protected addComment(): void {
     const body = this.validText(true);
     if (!body) return;
-    const lessonId = this.lessonId() ?? this.about.value;
+    const lessonId = this.about.value;
     this.busy.set(true);
     this.error.set(null);
     this.api.comment(this.unit().id, body, lessonId).subscribe({
