@@ -41,7 +41,12 @@ export async function serve(
   const transport = createMailTransport(config.smtpUrl);
   const jobs = await startJobs({
     connectionString: config.databaseUrl,
-    definitions: jobDefinitions({ db: database.db, transport, mailFrom: config.mailFrom }),
+    definitions: jobDefinitions({
+      db: database.db,
+      transport,
+      mailFrom: config.mailFrom,
+      appUrl: config.appUrl,
+    }),
     pollingIntervalSeconds: extra.jobPollSeconds,
   });
   // Any instance may deliver a message; the claim in deliverDue makes sure only one does.

@@ -8,6 +8,8 @@ import { requireActor } from '../auth/session.js';
 import { hashPassword, passwordProblem, verifyPassword } from '../auth/passwords.js';
 import { endSessionsOf, sessionUser } from '../auth/users.js';
 import { accountUpdateSchema, passwordChangeSchema } from '../../shared/schemas/auth.js';
+import { reminderPreferencesUpdateSchema } from '../../shared/schemas/reminders.js';
+import { readPreferences, savePreferences } from '../reminders/preferences.js';
 
 export function accountRouter(ctx: AppContext): Router {
   const router = Router();
@@ -22,6 +24,20 @@ export function accountRouter(ctx: AppContext): Router {
     const { name } = parse(accountUpdateSchema, req.body);
     await ctx.db.update(users).set({ name }).where(eq(users.id, actor.id));
     res.json({ user: await sessionUser(ctx.db, actor.id) });
+  });
+
+  // The person's reminder e-mails (charging and the morning summary), off until turned on.
+  router.get('/reminders', async (req, res) => {
+    const actor = requireActor(req);
+    res.json({ reminders: await readPreferences(ctx.db, actor.id) });
+  });
+
+  router.patch('/reminders', async (req, res) => {
+    const actor = requireActor(req);
+    authorize(actor, 'account.edit');
+    const change = parse(reminderPreferencesUpdateSchema, req.body);
+    const reminders = await ctx.db.transaction((tx) => savePreferences(tx, actor.id, change));
+    res.json({ reminders });
   });
 
   router.post('/password', async (req, res) => {

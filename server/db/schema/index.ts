@@ -13,3 +13,4 @@ export * from './sharing.js';
 export * from './reuse.js';
 export * from './review.js';
 export * from './trays.js';
+export * from './reminders.js';

@@ -4,6 +4,14 @@ import { map, type Observable } from 'rxjs';
 import { userResponseSchema, type SessionUser } from '../../../shared/schemas/auth';
 import { callerShowsErrors } from '../errors/error-context';
 import { parseWith } from '../errors/parse';
+import {
+  reminderPreferencesSchema,
+  type ReminderPreferences,
+  type ReminderPreferencesUpdate,
+} from '../../../shared/schemas/reminders';
+import * as z from 'zod';
+
+const remindersAnswer = z.object({ reminders: reminderPreferencesSchema });
 
 /** The signed-in user's own account (`/api/account`). */
 @Injectable({ providedIn: 'root' })
@@ -32,5 +40,21 @@ export class AccountApi {
         { context: callerShowsErrors(), responseType: 'text' },
       )
       .pipe(map(() => undefined));
+  }
+
+  /** The person's reminder e-mails (version 0 until first saved). */
+  reminders(): Observable<ReminderPreferences> {
+    return this.http.get('/api/account/reminders').pipe(
+      parseWith(remindersAnswer),
+      map((body) => body.reminders),
+    );
+  }
+
+  /** The page shows a 409 (changed in another tab) itself. */
+  saveReminders(change: ReminderPreferencesUpdate): Observable<ReminderPreferences> {
+    return this.http.patch('/api/account/reminders', change, { context: callerShowsErrors() }).pipe(
+      parseWith(remindersAnswer),
+      map((body) => body.reminders),
+    );
   }
 }

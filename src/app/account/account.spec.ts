@@ -7,7 +7,7 @@ import { MatFormFieldHarness } from '@angular/material/form-field/testing';
 import { MatInputHarness } from '@angular/material/input/testing';
 import { MatSnackBarHarness } from '@angular/material/snack-bar/testing';
 import { Session } from '../auth/session';
-import { demoUser, errorBody, testProviders } from '../testing/test-providers';
+import { demoUser, errorBody, settleReads, testProviders } from '../testing/test-providers';
 import { Account, WRONG_PASSWORD_MESSAGE } from './account';
 
 describe('Account', () => {
@@ -23,6 +23,17 @@ describe('Account', () => {
     loader = TestbedHarnessEnvironment.loader(fixture);
     fixture.detectChanges();
     backend.expectOne('/api/account').flush({ user: demoUser('teacher') });
+    await settleReads();
+    // The reminder e-mails card reads the person's choices (reminder-settings.spec.ts).
+    backend.expectOne('/api/account/reminders').flush({
+      reminders: {
+        chargeReminders: false,
+        leadMinutes: 30,
+        morningSummary: false,
+        summaryTime: '07:00',
+        version: 0,
+      },
+    });
     await fixture.whenStable();
   });
 

@@ -23,11 +23,12 @@ import { zodValidator } from '../forms/validators';
 import { apiResource } from '../http/resource';
 import { AccountApi } from './account-api';
 import { CalendarFeed } from './calendar-feed';
+import { ReminderSettings } from './reminder-settings';
 
 /** Shown under "Current password" when it is wrong. */
 export const WRONG_PASSWORD_MESSAGE = "That isn't your current password.";
 
-/** `/account`: the user's name and password, and their calendar feed. */
+/** `/account`: the user's name and password, their reminder e-mails and calendar feed. */
 @Component({
   selector: 'app-account',
   imports: [
@@ -39,6 +40,7 @@ export const WRONG_PASSWORD_MESSAGE = "That isn't your current password.";
     FieldErrorPipe,
     PasswordPair,
     CalendarFeed,
+    ReminderSettings,
   ],
   templateUrl: './account.html',
   styleUrl: './account.scss',
