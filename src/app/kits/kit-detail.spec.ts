@@ -87,6 +87,15 @@ const SCHOOL = {
   version: 1,
 };
 
+/**
+ * Lets flushed answers land and the reads waiting on them go out. settleReads waits on a timer,
+ * which jasmine's mock clock (installed here for "today") holds; an animation frame it does not.
+ */
+async function settle(): Promise<void> {
+  await new Promise((resolve) => requestAnimationFrame(resolve));
+  TestBed.tick();
+}
+
 describe('KitDetail', () => {
   let fixture: ComponentFixture<KitDetail>;
   let loader: HarnessLoader;
@@ -115,6 +124,8 @@ describe('KitDetail', () => {
       ],
     });
     backend.expectOne('/api/school').flush({ school: SCHOOL });
+    // The conflicts are read for the term around today, once the terms have landed.
+    await settle();
     backend
       .expectOne((r) => r.url === '/api/conflicts')
       .flush({
@@ -166,6 +177,7 @@ describe('KitDetail', () => {
     backend.expectOne(`/api/tubs?kitTypeId=${KIT_ID}`).flush({ tubs: [] });
     backend.expectOne(`/api/kit-types/${KIT_ID}/replacements`).flush({ lines: [] });
     backend.expectOne('/api/school').flush({ school: SCHOOL });
+    await settle();
     const request = backend.expectOne((r) => r.url === '/api/conflicts');
     expect(request.request.params.get('from')).toBe('2026-07-20');
     expect(request.request.params.get('to')).toBe('2026-09-25');
@@ -219,6 +231,7 @@ describe('KitDetail', () => {
         parts: kit(5, 6).parts.map((p) => (p.id === 'p2' ? { ...p, name: 'Big wheel' } : p)),
       },
     });
+    await settle();
     backend.expectOne(`/api/tubs?kitTypeId=${KIT_ID}`).flush({ tubs: [] });
     fixture.detectChanges();
     await fixture.whenStable();

@@ -17,6 +17,7 @@ import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatTableModule } from '@angular/material/table';
 import { Router, RouterLink } from '@angular/router';
+import { catchError, map, of } from 'rxjs';
 import {
   TUB_STATUS_LABELS,
   kitTypeSchema,
@@ -29,6 +30,7 @@ import { Session } from '../auth/session';
 import { AppError } from '../errors/app-error';
 import { staleConflict } from '../errors/conflict';
 import { Notifier } from '../errors/notifier';
+import { apiResource } from '../http/resource';
 import { confirmDelete } from './delete-dialog';
 import { ImportDialog, type ImportDialogData } from './import-dialog';
 import { KIT_EDITORS } from './kit-list';
@@ -42,6 +44,12 @@ const DIALOG_WIDTH = 'min(32rem, calc(100vw - 2rem))';
 
 /** Term 3 of 2026 in the demo calendar, used when the school has no term around today. */
 export const DEFAULT_RANGE = { from: '2026-07-20', to: '2026-09-26' };
+
+/** The dates the booking conflicts are read for. */
+interface DateRange {
+  from: string;
+  to: string;
+}
 
 /** `/kits/:id`: a kit type's parts list, its tubs, the replacement list and booking conflicts. */
 @Component({
@@ -73,12 +81,45 @@ export class KitDetail {
 
   protected readonly tubColumns = ['label', 'controllerLabel', 'status', 'missing', 'open'];
   protected readonly replacementColumns = ['partCode', 'name', 'missing', 'tubs'];
-  protected readonly kit = signal<KitType | null>(null);
-  protected readonly loading = signal(true);
+  /** The kit type with its parts list, as read or as the last save answered. */
+  private readonly kitRead = apiResource({
+    params: () => this.id(),
+    load: (id: string) => this.api.get(id),
+  });
+  protected readonly kit = computed(() => this.kitRead.value() ?? null);
+  protected readonly loading = this.kitRead.loading;
   protected readonly saving = signal(false);
-  protected readonly tubs = signal<TubSummary[]>([]);
-  protected readonly replacements = signal<ReplacementLine[]>([]);
-  protected readonly conflicts = signal<Conflicts | null>(null);
+  private readonly tubsRead = apiResource({
+    params: () => this.id(),
+    load: (id: string) => this.api.tubs(id),
+  });
+  protected readonly tubs = computed(() => this.tubsRead.value() ?? []);
+  private readonly replacementsRead = apiResource({
+    params: () => this.id(),
+    load: (id: string) => this.api.replacements(id),
+  });
+  protected readonly replacements = computed(() => this.replacementsRead.value() ?? []);
+  /** The school's term around today (null when there is none, or the terms did not load). */
+  private readonly termRead = apiResource({
+    load: () =>
+      this.api.terms().pipe(
+        map((terms): DateRange | null => {
+          const today = new Date().toISOString().slice(0, 10);
+          const term = terms.find((t) => t.startsOn <= today && today <= t.endsOn);
+          return term ? { from: term.startsOn, to: term.endsOn } : null;
+        }),
+        catchError(() => of(null)),
+      ),
+  });
+  /** The range asked for: a new object on each "Show", so the same dates are read again. */
+  private readonly conflictRange = signal<DateRange | undefined>(undefined);
+  private readonly conflictsRead = apiResource({
+    params: () => this.conflictRange(),
+    load: ({ from, to }: DateRange) => this.api.conflicts(from, to),
+  });
+  protected readonly conflicts = computed<Conflicts | null>(
+    () => this.conflictsRead.value() ?? null,
+  );
   /** An edit the server refused as stale, kept so it can be re-applied on the new version. */
   protected readonly stale = signal<PartSave | null>(null);
   protected readonly canEdit = computed(() =>
@@ -90,11 +131,13 @@ export class KitDetail {
   });
 
   constructor() {
+    // The conflicts start with the school's term around today when there is one, else term 3.
     effect(() => {
-      const id = this.id();
+      const term = this.termRead.value();
+      if (term === undefined) return;
       untracked(() => {
-        this.load(id);
-        this.loadTermThenConflicts();
+        if (term) this.range.setValue(term);
+        this.loadConflicts();
       });
     });
   }
@@ -124,7 +167,7 @@ export class KitDetail {
   /** Reloads everything from the server and drops a refused edit. */
   reload(): void {
     this.stale.set(null);
-    this.load(this.id());
+    this.load();
   }
 
   protected savePart(request: PartSave): void {
@@ -171,7 +214,7 @@ export class KitDetail {
       .afterClosed()
       .subscribe((saved?: KitType) => {
         if (!saved) return;
-        this.kit.set(saved);
+        this.kitRead.set(saved);
         this.notifier.info(`${saved.name} is saved.`);
       });
   }
@@ -210,27 +253,24 @@ export class KitDetail {
     }).subscribe((gone) => {
       if (!gone) return;
       this.notifier.info(`${tub.label} is deleted.`);
-      this.load(this.id());
+      this.load();
     });
   }
 
   /** A photo does not change the kit type's version, so only that part's flag is updated. */
   protected photoChanged(part: Part): void {
-    this.kit.update(
-      (kit) =>
-        kit && {
-          ...kit,
-          parts: kit.parts.map((p) =>
-            p.code === part.code ? { ...p, hasPhoto: part.hasPhoto } : p,
-          ),
-        },
-    );
+    const kit = this.kit();
+    if (!kit) return;
+    this.kitRead.set({
+      ...kit,
+      parts: kit.parts.map((p) => (p.code === part.code ? { ...p, hasPhoto: part.hasPhoto } : p)),
+    });
   }
 
   protected loadConflicts(): void {
     const { from, to } = this.range.getRawValue();
     if (!/^\d{4}-\d{2}-\d{2}$/.test(from) || !/^\d{4}-\d{2}-\d{2}$/.test(to)) return;
-    this.api.conflicts(from, to).subscribe((c) => this.conflicts.set(c));
+    this.conflictRange.set({ from, to });
   }
 
   /** Relief teachers record audits too; leads only read. */
@@ -246,7 +286,7 @@ export class KitDetail {
         if (!saved) return;
         this.notifier.info(`${saved.label} is saved.`);
         // The kit type's tub count and the replacement list follow the tubs.
-        this.load(this.id());
+        this.load();
       });
   }
 
@@ -256,17 +296,18 @@ export class KitDetail {
     this.api.updatePart(id, request.part.id, version, request.change).subscribe({
       next: (kit) => {
         this.saving.set(false);
-        this.kit.set(kit);
+        this.kitRead.set(kit);
         this.notifier.info(`${request.part.code} is saved.`);
-        this.loadTubs(id);
+        // A tub's stock follows the parts list's quantities.
+        this.tubsRead.reload();
       },
       error: (error: unknown) => {
         this.saving.set(false);
         const conflict = staleConflict(error, kitTypeSchema);
         if (conflict) {
           // Show the list as it is now; the person chooses to re-apply or leave it.
-          if (conflict.current) this.kit.set(conflict.current);
-          else this.load(id);
+          if (conflict.current) this.kitRead.set(conflict.current);
+          else this.load();
           this.stale.set(request);
         } else if (error instanceof AppError) {
           this.notifier.error(error.message);
@@ -275,33 +316,10 @@ export class KitDetail {
     });
   }
 
-  private load(id: string): void {
-    this.loading.set(true);
-    this.api.get(id).subscribe({
-      next: (kit) => {
-        this.kit.set(kit);
-        this.loading.set(false);
-      },
-      error: () => this.loading.set(false),
-    });
-    this.loadTubs(id);
-    this.api.replacements(id).subscribe((lines) => this.replacements.set(lines));
-  }
-
-  private loadTubs(id: string): void {
-    this.api.tubs(id).subscribe((tubs) => this.tubs.set(tubs));
-  }
-
-  /** Uses the school's term around today when there is one, else term 3 of 2026. */
-  private loadTermThenConflicts(): void {
-    this.api.terms().subscribe({
-      next: (terms) => {
-        const today = new Date().toISOString().slice(0, 10);
-        const term = terms.find((t) => t.startsOn <= today && today <= t.endsOn);
-        if (term) this.range.setValue({ from: term.startsOn, to: term.endsOn });
-        this.loadConflicts();
-      },
-      error: () => this.loadConflicts(),
-    });
+  /** Reads the kit type, its tubs and its replacement list again. */
+  private load(): void {
+    this.kitRead.reload();
+    this.tubsRead.reload();
+    this.replacementsRead.reload();
   }
 }

@@ -6,7 +6,7 @@ import { MAT_DIALOG_DATA, MatDialogRef } from '@angular/material/dialog';
 import { MatButtonHarness } from '@angular/material/button/testing';
 import { MatInputHarness } from '@angular/material/input/testing';
 import type { Tub } from '../../../shared/schemas/kits';
-import { testProviders } from '../testing/test-providers';
+import { settleReads, testProviders } from '../testing/test-providers';
 import { TubDialog, type TubDialogData } from './tub-dialog';
 
 /** Tub 5 of the invented demo kit: one wheel missing of four, so three in stock. */
@@ -113,6 +113,8 @@ describe('TubDialog', () => {
       note: 'Lost-parts box checked.',
     });
     request.flush({}, { status: 201, statusText: 'Created' });
+    // The tub and its audits are read again (resource reloads, started on the next tick).
+    await settleReads();
     backend.expectOne('/api/tubs/tub-5').flush({ tub: TUB });
     backend.expectOne('/api/tubs/tub-5/audits').flush({ audits: [] });
     await (await loader.getHarness(MatButtonHarness.with({ text: 'Close' }))).click();

@@ -1,5 +1,5 @@
 import { DatePipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, OnInit, inject, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
 import { FormArray, FormControl, FormGroup, ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
@@ -18,6 +18,7 @@ import {
 import { AppError } from '../errors/app-error';
 import { FieldErrorPipe } from '../forms/field-error';
 import { zodValidator } from '../forms/validators';
+import { apiResource } from '../http/resource';
 import { KitsApi } from './kits-api';
 
 /** What the tub dialog needs: the tub, the kit type's parts (names and quantities). */
@@ -66,14 +67,17 @@ function countRow(code: string) {
   styleUrl: './tub-dialog.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
-export class TubDialog implements OnInit {
+export class TubDialog {
   private readonly api = inject(KitsApi);
   private readonly dialogRef = inject<MatDialogRef<TubDialog, boolean>>(MatDialogRef);
   protected readonly data = inject<TubDialogData>(MAT_DIALOG_DATA);
 
   protected readonly statusLabels = TUB_STATUS_LABELS;
-  protected readonly tub = signal<Tub | null>(null);
-  protected readonly audits = signal<TubAudit[]>([]);
+  /** The tub's status, stock and missing parts, read again after an audit. */
+  private readonly tubRead = apiResource({ load: () => this.api.tub(this.data.tubId) });
+  protected readonly tub = computed<Tub | null>(() => this.tubRead.value() ?? null);
+  private readonly auditsRead = apiResource({ load: () => this.api.audits(this.data.tubId) });
+  protected readonly audits = computed<readonly TubAudit[]>(() => this.auditsRead.value() ?? []);
   protected readonly submitting = signal(false);
   protected readonly formError = signal<string | null>(null);
   protected readonly saved = signal(false);
@@ -84,10 +88,6 @@ export class TubDialog implements OnInit {
       validators: [zodValidator(tubAuditCreateSchema.shape.note)],
     }),
   });
-
-  ngOnInit(): void {
-    this.refresh();
-  }
 
   protected partName(index: number): string {
     const part = this.data.parts[index];
@@ -136,17 +136,13 @@ export class TubDialog implements OnInit {
         this.submitting.set(false);
         this.saved.set(true);
         this.form.reset();
-        this.refresh();
+        this.tubRead.reload();
+        this.auditsRead.reload();
       },
       error: (error: unknown) => {
         this.submitting.set(false);
         this.formError.set(error instanceof AppError ? error.message : String(error));
       },
     });
-  }
-
-  private refresh(): void {
-    this.api.tub(this.data.tubId).subscribe((tub) => this.tub.set(tub));
-    this.api.audits(this.data.tubId).subscribe((audits) => this.audits.set(audits));
   }
 }
