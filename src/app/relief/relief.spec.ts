@@ -22,6 +22,8 @@ describe('Relief', () => {
   it('lists the assigned lessons with their time, notes and a print button', async () => {
     TestBed.configureTestingModule({ providers: [...testProviders(), provideMarkdown()] });
     const fixture = TestBed.createComponent(Relief);
+    // The list is a resource read: it goes out with the page's first check.
+    fixture.detectChanges();
     const http = TestBed.inject(HttpTestingController);
     http.expectOne('/api/relief/lessons').flush({ lessons: [LESSON] });
     await fixture.whenStable();
@@ -44,6 +46,7 @@ describe('Relief', () => {
   it('says so when nothing is assigned', async () => {
     TestBed.configureTestingModule({ providers: [...testProviders(), provideMarkdown()] });
     const fixture = TestBed.createComponent(Relief);
+    fixture.detectChanges();
     TestBed.inject(HttpTestingController).expectOne('/api/relief/lessons').flush({ lessons: [] });
     await fixture.whenStable();
     expect((fixture.nativeElement as HTMLElement).textContent).toContain('No lessons are assigned');

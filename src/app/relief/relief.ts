@@ -1,4 +1,4 @@
-import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
 import { RouterLink } from '@angular/router';
 import { MarkdownComponent } from 'ngx-markdown';
 import { MatButtonModule } from '@angular/material/button';
@@ -7,6 +7,7 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { clockTime, dayLabel } from '../lessons/clock';
 import { saveBlob } from '../files/transfer';
+import { apiResource } from '../http/resource';
 import { ReliefApi, type ReliefLesson } from './relief-api';
 
 /** A relief teacher's page: each assigned lesson with its notes, a link and its lesson pack. */
@@ -27,16 +28,13 @@ import { ReliefApi, type ReliefLesson } from './relief-api';
 export class Relief {
   private readonly api = inject(ReliefApi);
 
-  protected readonly lessons = signal<ReliefLesson[] | null>(null);
+  private readonly read = apiResource({ load: () => this.api.lessons() });
+  /** Null while loading; a failed read (shown by the error interceptor) lists none. */
+  protected readonly lessons = computed<ReliefLesson[] | null>(() =>
+    this.read.error() ? [] : (this.read.value()?.lessons ?? null),
+  );
   /** The lesson whose pack is being made, with its progress (null when the size is unknown). */
   protected readonly printing = signal<{ id: string; fraction: number | null } | null>(null);
-
-  constructor() {
-    this.api.lessons().subscribe({
-      next: (body) => this.lessons.set(body.lessons),
-      error: () => this.lessons.set([]),
-    });
-  }
 
   protected when(lesson: ReliefLesson): string {
     return `${dayLabel(lesson.startsAt)}, ${clockTime(lesson.startsAt)}–${clockTime(lesson.endsAt)}`;

@@ -1,21 +1,23 @@
-import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
-import { HttpClient } from '@angular/common/http';
+import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
 import { RouterLink } from '@angular/router';
 import { MarkdownComponent } from 'ngx-markdown';
 import { MatButtonModule } from '@angular/material/button';
 import { MatCardModule } from '@angular/material/card';
 import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
-import { parseWith } from '../errors/parse';
-import { callerShowsErrors } from '../errors/error-context';
+import { catchError, map, of, type Observable } from 'rxjs';
 import { AppError } from '../errors/app-error';
 import { saveBlob } from '../files/transfer';
+import { apiResource } from '../http/resource';
 import { clockTime, dayLabel } from '../lessons/clock';
-import { savedLabel, withSavedCopy } from '../offline/saved-copy';
-import { reliefDaySchema, type ReliefDay } from '../../../shared/schemas/sharing';
+import { savedLabel, type MaybeSaved } from '../offline/saved-copy';
+import type { ReliefDay } from '../../../shared/schemas/sharing';
 import { ReliefApi } from './relief-api';
 
 type DayLesson = ReliefDay['lessons'][number];
+
+/** What the page shows: the day (live or a saved copy), or why there is none. */
+type Shown = (MaybeSaved<ReliefDay> & { problem: null }) | { problem: string };
 
 /**
  * A relief teacher's "Today": each lesson assigned to them today in time order, with room,
@@ -148,33 +150,19 @@ type DayLesson = ReliefDay['lessons'][number];
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 export class Today {
-  private readonly http = inject(HttpClient);
   private readonly relief = inject(ReliefApi);
 
-  protected readonly day = signal<ReliefDay | null>(null);
-  protected readonly savedAt = signal<string | null>(null);
-  protected readonly problem = signal<string | null>(null);
+  private readonly read = apiResource({ load: () => shown(this.relief.today()) });
+  protected readonly day = computed(() => {
+    const shown = this.read.value();
+    return shown && shown.problem === null ? shown.value : null;
+  });
+  protected readonly savedAt = computed(() => {
+    const shown = this.read.value();
+    return shown && shown.problem === null ? shown.savedAt : null;
+  });
+  protected readonly problem = computed(() => this.read.value()?.problem ?? null);
   protected readonly printing = signal<string | null>(null);
-
-  constructor() {
-    const read = this.http
-      .get('/api/relief/today', { context: callerShowsErrors() })
-      .pipe(parseWith(reliefDaySchema));
-    withSavedCopy('relief.today', read).subscribe({
-      next: ({ value, savedAt }) => {
-        this.day.set(value);
-        this.savedAt.set(savedAt);
-      },
-      error: (e: unknown) =>
-        this.problem.set(
-          e instanceof AppError && e.status === 0
-            ? 'Trayplan cannot be reached, and this browser has no saved copy of today yet.'
-            : e instanceof AppError
-              ? e.message
-              : 'Today could not be loaded.',
-        ),
-    });
-  }
 
   protected clock(value: string): string {
     return clockTime(value);
@@ -205,4 +193,21 @@ export class Today {
       error: () => this.printing.set(null),
     });
   }
+}
+
+/** A failed read is an answer this page words itself (offline with no saved copy, or else). */
+function shown(day: Observable<MaybeSaved<ReliefDay>>): Observable<Shown> {
+  return day.pipe(
+    map((saved): Shown => ({ ...saved, problem: null })),
+    catchError((e: unknown) =>
+      of<Shown>({
+        problem:
+          e instanceof AppError && e.status === 0
+            ? 'Trayplan cannot be reached, and this browser has no saved copy of today yet.'
+            : e instanceof AppError
+              ? e.message
+              : 'Today could not be loaded.',
+      }),
+    ),
+  );
 }
