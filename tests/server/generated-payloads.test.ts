@@ -254,6 +254,13 @@ const ROUTES: Route[] = [
     currentPassword: 'x',
     newPassword: 'y',
   }),
+  r('account.ts PATCH /reminders', 'teacher', () => '/api/account/reminders', {
+    version: 0,
+    chargeReminders: true,
+    leadMinutes: 30,
+    morningSummary: true,
+    summaryTime: '07:00',
+  }),
   r('calendar-feed.ts POST /', 'teacher', () => '/api/account/calendar-feed', {}),
   r('members.ts POST /invitations', 'admin', () => '/api/members/invitations', {
     email: 'new@kestrel-ridge.example',
