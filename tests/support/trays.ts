@@ -52,7 +52,12 @@ export interface PrintedLabel {
 export async function readLabels(b: Browser, lessonId: string): Promise<PrintedLabel[]> {
   const res = await download(b, `/api/lessons/${lessonId}/labels.pdf`);
   if (res.status !== 200) throw new Error(`labels.pdf answered ${res.status}`);
-  const doc = await getDocument({ data: new Uint8Array(res.body as Buffer) }).promise;
+  return readLabelsPdf(new Uint8Array(res.body as Buffer));
+}
+
+/** Reads every label of an A4 labels PDF back from its rendered pixels (and its text). */
+export async function readLabelsPdf(data: Uint8Array): Promise<PrintedLabel[]> {
+  const doc = await getDocument({ data }).promise;
   const grid = labelGrid('A4');
   const pageHeight = 841.89;
   const out: PrintedLabel[] = [];
