@@ -1,7 +1,8 @@
 /**
  * Two Trayplan instances on one database, as behind a load balancer: a session made on one is
  * used on the other, sign-in failures count across both, and 50 queued messages are delivered
- * exactly once between them (the PostgreSQL job queue plus a claim in one UPDATE).
+ * exactly once between them (the PostgreSQL job queue plus a claim in one UPDATE); a reminder
+ * that is due, swept by both instances' job workers at once, is e-mailed once.
  */
 import { after, before, describe, it } from 'node:test';
 import assert from 'node:assert/strict';
@@ -10,8 +11,17 @@ import { loadConfig } from '../../server/config.js';
 import { freePort } from '../../server/db/cluster.js';
 import { serve, type Running } from '../../server/main.js';
 import { enqueueMail } from '../../server/mail/outbox.js';
-import { MAIL_JOB } from '../../server/jobs/registry.js';
-import { outbox } from '../../server/db/schema/index.js';
+import { MAIL_JOB, REMINDERS_JOB } from '../../server/jobs/registry.js';
+import {
+  lessons,
+  outbox,
+  reminderPreferences,
+  sentReminders,
+  users,
+} from '../../server/db/schema/index.js';
+import { planLesson } from '../../server/prep/plan-lesson.js';
+import { demoLessonId, SCHOOL_ZONE } from '../support/trays.js';
+import { DateTime } from 'luxon';
 import { startFakeSmtp, type FakeSmtp } from '../../server/mail/fake-smtp.js';
 import { freshDatabase, type TestDatabase } from '../support/db.js';
 import { LoopbackClient } from '../support/loopback.js';
@@ -98,6 +108,54 @@ describe('two instances on one database', () => {
       .from(outbox)
       .where(eq(outbox.status, 'pending'));
     assert.equal(left!.n, 0);
+  });
+});
+
+describe('reminders through both instances’ job queue', () => {
+  it('a charge reminder due now, swept by both instances at once, is e-mailed once', async () => {
+    const db = database.db;
+    const [teacher] = await db
+      .select()
+      .from(users)
+      .where(eq(users.email, 'teacher@kestrel-ridge.example'));
+    await db.insert(reminderPreferences).values({ userId: teacher!.id, chargeReminders: true });
+    // Move the demo lesson so that its charge task starts in 5 minutes: with a 30-minute lead
+    // its reminder has been due for 25 minutes (as after a restart) and is still worth sending.
+    const id = await demoLessonId(db);
+    const local = (ms: number) =>
+      DateTime.fromMillis(ms, { zone: SCHOOL_ZONE }).toFormat('yyyy-MM-dd HH:mm:00');
+    const [row] = await db.select().from(lessons).where(eq(lessons.id, id));
+    const length = Date.parse(row!.endsAt + 'Z') - Date.parse(row!.startsAt + 'Z');
+    const move = async (startMs: number) =>
+      db
+        .update(lessons)
+        .set({ startsAt: local(startMs), endsAt: local(startMs + length) })
+        .where(eq(lessons.id, id));
+    const minute = (ms: number) => Math.floor(ms / 60_000) * 60_000;
+    const trial = minute(Date.now()) + 6 * 3_600_000;
+    await move(trial);
+    const planned = await planLesson(db, id);
+    assert.ok(planned?.plannable);
+    const charge = planned.plan.tasks.find((t) => t.kind === 'charge')!;
+    await move(trial + (minute(Date.now()) + 5 * 60_000 - Date.parse(charge.startBy)));
+
+    await Promise.all([
+      a.jobs.send(REMINDERS_JOB),
+      b.jobs.send(REMINDERS_JOB),
+      a.jobs.send(REMINDERS_JOB),
+      b.jobs.send(REMINDERS_JOB),
+    ]);
+    const reminders = () => smtp.messages().filter((m) => m.subject.startsWith('Start charging'));
+    const deadline = Date.now() + 20_000;
+    while (reminders().length < 1 && Date.now() < deadline) {
+      await new Promise((r) => setTimeout(r, 200));
+    }
+    // Every job asked for has run by now (or is running); a double would arrive meanwhile.
+    await new Promise((r) => setTimeout(r, 3000));
+    assert.equal(reminders().length, 1);
+    assert.deepEqual(reminders()[0]!.to, ['teacher@kestrel-ridge.example']);
+    const claimed = await db.select().from(sentReminders).where(eq(sentReminders.lessonId, id));
+    assert.equal(claimed.length, 1);
   });
 });
 
