@@ -54,6 +54,15 @@ export function sameSchool(actor: Actor, schoolId: string): boolean {
   return actor.schoolId === schoolId;
 }
 
+/**
+ * Who changes or deletes a class: the school's admins and the class's own teachers. Other
+ * teachers read it (to plan lessons for it) but do not change a colleague's class.
+ */
+export function canEditClass(actor: Actor, teacherIds: readonly string[]): boolean {
+  if (actor.role === 'admin') return true;
+  return can(actor, 'classes.edit') && teacherIds.includes(actor.id);
+}
+
 /** What the unit rules need to know of a unit. */
 export interface UnitFacts {
   schoolId: string;

@@ -7,7 +7,7 @@
 import ical, { ICalAlarmType, ICalEventTransparency } from 'ical-generator';
 import { DateTime } from 'luxon';
 import type { LessonPackModel } from '../pdf/model.js';
-import { localClockTime, shortDate } from '../pdf/format.js';
+import { clockTime, localClockTime, shortDate } from '../pdf/format.js';
 import { vtimezone } from './vtimezone.js';
 import { calendarText, escapeCalendarText } from './text.js';
 
@@ -49,7 +49,7 @@ export function prepCalendar(input: PrepCalendarInput): string {
       const done = zoned(task.doneBy);
       const description =
         `For lesson ${lesson.number} of ${lesson.unitTitle}, “${lesson.title}” (${when}). ` +
-        `Takes ${task.minutes} min; done by ${done.setLocale('en-AU').toFormat('h:mm a')}.`;
+        `Takes ${task.minutes} min; done by ${clockTime(task.doneBy, timezone)}.`;
       const event = calendar.createEvent({
         // Stable ids: importing the calendar again updates these events instead of doubling them.
         id: `${lesson.id}-${i}-${task.kind}@trayplan`,

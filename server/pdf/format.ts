@@ -3,8 +3,9 @@
  * Formats are unambiguous in any English locale: the month is a word, times carry am/pm.
  */
 import { DateTime } from 'luxon';
+import { clockTime as schoolClock, SCHOOL_LOCALE } from '../../shared/text/clock.js';
 
-const LOCALE = 'en-AU';
+const LOCALE = SCHOOL_LOCALE;
 
 function zoned(iso: string, timezone: string): DateTime {
   const dt = DateTime.fromISO(iso, { setZone: true });
@@ -19,14 +20,17 @@ function local(value: string, timezone: string): DateTime {
   return dt.setLocale(LOCALE);
 }
 
+/** The wall-clock digits of a DateTime, for the one clock style of app and printables. */
+const wall = (dt: DateTime) => schoolClock(dt.toFormat("yyyy-MM-dd'T'HH:mm"));
+
 /** `11:10 am` of an instant (ISO with offset) in the zone. */
 export function clockTime(iso: string, timezone: string): string {
-  return zoned(iso, timezone).toFormat('h:mm a');
+  return wall(zoned(iso, timezone));
 }
 
 /** `11:10 am` of a wall-clock `2026-07-28T11:10`. */
 export function localClockTime(value: string, timezone: string): string {
-  return local(value, timezone).toFormat('h:mm a');
+  return wall(local(value, timezone));
 }
 
 /** `Tuesday 28 July 2026` of a wall-clock date-time or date. */
@@ -46,22 +50,15 @@ export function shortDate(value: string, timezone: string): string {
 export function taskTime(iso: string, lessonDay: string, timezone: string): string {
   const dt = zoned(iso, timezone);
   return dt.toISODate() === lessonDay.slice(0, 10)
-    ? dt.toFormat('h:mm a')
-    : dt.toFormat('ccc d LLL, h:mm a');
+    ? wall(dt)
+    : `${dt.toFormat('ccc d LLL')}, ${wall(dt)}`;
 }
 
 /** `Tue 28 Jul 2026, 6:32 pm ACST`: when a file was made, in the school's zone. */
 export function generatedLabel(generatedAt: string, timezone: string): string {
-  return zoned(generatedAt, timezone).toFormat('ccc d LLL yyyy, h:mm a ZZZZ');
+  const dt = zoned(generatedAt, timezone);
+  return `${dt.toFormat('ccc d LLL yyyy')}, ${wall(dt)} ${dt.toFormat('ZZZZ')}`;
 }
 
-/** `3 students`, `1 student`. */
-export function plural(n: number, one: string, many = `${one}s`): string {
-  return `${n} ${n === 1 ? one : many}`;
-}
-
-/** `a, b and c`. */
-export function listing(items: readonly string[]): string {
-  if (items.length <= 1) return items.join('');
-  return `${items.slice(0, -1).join(', ')} and ${items[items.length - 1]}`;
-}
+// The one plural and list helper of app and printables.
+export { plural, listWords as listing } from '../../shared/text/plural.js';

@@ -3,7 +3,7 @@
  * JSON models of ./model.ts. Run inside one repeatable-read transaction per request, so a pack
  * matches the lesson as stored at that moment (nothing is cached between requests).
  */
-import { asc, count, eq } from 'drizzle-orm';
+import { asc, eq } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
 import type { Tx } from '../db/client.js';
 import {
@@ -51,6 +51,26 @@ async function unitOutcomeList(tx: Tx, unitId: string): Promise<PackOutcome[]> {
   return rows.sort((a, b) => naturalCompare(a.code, b.code));
 }
 
+/**
+ * The lesson's place in its unit, counted (positions have gaps after a delete, and the seed and
+ * the API have started them at different numbers): lessons in the unit's order up to this one.
+ */
+async function lessonNumber(
+  tx: Tx,
+  unitId: string,
+  lessonId: string,
+): Promise<{ number: number; lessonCount: number }> {
+  const ordered = await tx
+    .select({ id: lessons.id })
+    .from(lessons)
+    .where(eq(lessons.unitId, unitId))
+    .orderBy(asc(lessons.position), asc(lessons.createdAt), asc(lessons.id));
+  return {
+    number: ordered.findIndex((l) => l.id === lessonId) + 1,
+    lessonCount: ordered.length,
+  };
+}
+
 const relief = alias(users, 'relief_teacher');
 const owner = alias(users, 'unit_owner');
 
@@ -88,10 +108,7 @@ export async function loadLessonPack(tx: Tx, lessonId: string): Promise<LessonPa
   const planned = await planLesson(tx, lessonId);
   if (!planned) return null;
   const { input } = planned;
-  const [{ lessonCount }] = (await tx
-    .select({ lessonCount: count() })
-    .from(lessons)
-    .where(eq(lessons.unitId, row.unitId))) as [{ lessonCount: number }];
+  const { number, lessonCount } = await lessonNumber(tx, row.unitId, lessonId);
   const teacherRows = await tx
     .select({ name: users.name })
     .from(classTeachers)
@@ -113,7 +130,7 @@ export async function loadLessonPack(tx: Tx, lessonId: string): Promise<LessonPa
   }
   return {
     id: row.id,
-    number: row.position + 1,
+    number,
     lessonCount,
     title: row.title,
     unitTitle: row.unitTitle,
@@ -176,7 +193,7 @@ export async function loadUnitPack(
     .select({ id: lessons.id })
     .from(lessons)
     .where(eq(lessons.unitId, unitId))
-    .orderBy(asc(lessons.position));
+    .orderBy(asc(lessons.position), asc(lessons.createdAt), asc(lessons.id));
   const packs: LessonPackModel[] = [];
   for (const { id } of ids) {
     const pack = await loadLessonPack(tx, id);

@@ -91,6 +91,14 @@ export function authRouter(ctx: AppContext): Router {
     res.status(204).end();
   });
 
+  /**
+   * The session as the app's start-up asks for it: 200 with the user, or with null when signed
+   * out. A signed-out visit is normal, so it must not be an HTTP error the browser logs.
+   */
+  router.get('/session', (req, res) => {
+    res.json({ user: req.actor ?? null });
+  });
+
   router.get('/me', (req, res) => {
     const actor = requireActor(req);
     res.json({ user: actor });

@@ -7,9 +7,9 @@ import { and, asc, eq, inArray, ne, sql } from 'drizzle-orm';
 import type { AppContext } from '../context.js';
 import type { Tx } from '../db/client.js';
 import { classes, classTeachers, users } from '../db/schema/index.js';
-import { HttpError, notFound, parse, parseParams } from '../http.js';
+import { HttpError, forbidden, notFound, parse, parseParams } from '../http.js';
 import { isUniqueViolation } from '../db/errors.js';
-import { authorize, type Actor } from '../auth/policy.js';
+import { authorize, canEditClass, type Actor } from '../auth/policy.js';
 import { requireActor } from '../auth/session.js';
 import { idParamsSchema } from '../../shared/schemas/common.js';
 import {
@@ -65,6 +65,19 @@ async function listClasses(tx: Tx, schoolId: string, onlyId?: string): Promise<S
 async function oneClass(tx: Tx, actor: Actor, id: string): Promise<SchoolClass> {
   const [found] = await listClasses(tx, actor.schoolId, id);
   if (!found) throw notFound('That class');
+  return found;
+}
+
+/** The class if the actor may change it: 404 for another school's, 403 for a colleague's. */
+async function editableClass(tx: Tx, actor: Actor, id: string): Promise<SchoolClass> {
+  const found = await oneClass(tx, actor, id);
+  if (
+    !canEditClass(
+      actor,
+      found.teachers.map((t) => t.id),
+    )
+  )
+    throw forbidden('Only the teachers of this class and admins change it.');
   return found;
 }
 
@@ -163,7 +176,7 @@ export function classesRouter(ctx: AppContext): Router {
     const body = parse(classUpdateSchema, req.body);
     try {
       const updated = await ctx.db.transaction(async (tx) => {
-        await oneClass(tx, actor, id);
+        await editableClass(tx, actor, id);
         if (body.teacherIds) await checkTeachers(tx, actor, body.teacherIds);
         if (body.name !== undefined) await checkName(tx, actor.schoolId, body.name, id);
         const { teacherIds, ...fields } = body;
@@ -191,7 +204,7 @@ export function classesRouter(ctx: AppContext): Router {
       await tx.execute(
         sql`SELECT id FROM classes WHERE id = ${id} AND school_id = ${actor.schoolId} FOR UPDATE`,
       );
-      const found = await oneClass(tx, actor, id);
+      const found = await editableClass(tx, actor, id);
       if (found.lessonCount > 0) {
         const n = found.lessonCount;
         const [lessonWord, them] = n === 1 ? ['lesson', 'it'] : ['lessons', 'them'];

@@ -4,7 +4,7 @@
  * only an admin saves them, all at once, with the version they read.
  */
 import { Router } from 'express';
-import { and, asc, eq, inArray, notInArray } from 'drizzle-orm';
+import { and, asc, eq, inArray, notInArray, sql } from 'drizzle-orm';
 import type { AppContext } from '../context.js';
 import type { Tx } from '../db/client.js';
 import {
@@ -36,6 +36,29 @@ async function keptIds(
     .from(table)
     .where(and(eq(table.schoolId, schoolId), inArray(table.id, ids)));
   return new Set(rows.map((r) => r.id));
+}
+
+/**
+ * Lessons booked in a period move with it: each keeps its date and takes the period's new
+ * times, so no screen or pack shows a time the lesson does not have. A moved lesson's version
+ * goes up, so an editor opened on the old times gets a 409 rather than writing them back.
+ */
+async function followPeriod(
+  tx: Tx,
+  schoolId: string,
+  periodId: string,
+  startsAt: string,
+  endsAt: string,
+): Promise<void> {
+  await tx.execute(sql`
+    UPDATE lessons
+       SET starts_at = starts_at::date + ${startsAt}::time,
+           ends_at = starts_at::date + ${endsAt}::time,
+           version = version + 1,
+           updated_at = now()
+     WHERE school_id = ${schoolId}
+       AND period_id = ${periodId}
+       AND (starts_at::time <> ${startsAt}::time OR ends_at::time <> ${endsAt}::time)`);
 }
 
 type Update = ReturnType<typeof schoolSettingsUpdateSchema.parse>;
@@ -72,9 +95,10 @@ async function saveCalendar(tx: Tx, schoolId: string, body: Update): Promise<voi
   const ordered = [...body.periods].sort((a, b) => a.startsAt.localeCompare(b.startsAt));
   for (const [position, p] of ordered.entries()) {
     const values = { position, name: p.name, startsAt: p.startsAt, endsAt: p.endsAt };
-    if (p.id && periodIds.has(p.id))
+    if (p.id && periodIds.has(p.id)) {
       await tx.update(bellPeriods).set(values).where(eq(bellPeriods.id, p.id));
-    else await tx.insert(bellPeriods).values({ schoolId, ...values });
+      await followPeriod(tx, schoolId, p.id, p.startsAt, p.endsAt);
+    } else await tx.insert(bellPeriods).values({ schoolId, ...values });
   }
 
   const dayIds = await keptIds(

@@ -1,5 +1,6 @@
 /** The e-mail that carries a share link to a relief teacher. Plain text; the link on its own line. */
 import { DateTime } from 'luxon';
+import { clockTime } from '../../shared/text/clock.js';
 import type { OutgoingMail } from '../mail/outbox.js';
 
 export interface ShareMailFacts {
@@ -19,7 +20,7 @@ export interface ShareMailFacts {
 export function shareLinkMail(f: ShareMailFacts): OutgoingMail {
   const starts = DateTime.fromISO(f.startsAt, { zone: f.timezone }).setLocale('en-AU');
   const until = DateTime.fromJSDate(f.expiresAt, { zone: f.timezone }).setLocale('en-AU');
-  const when = `${starts.toFormat('cccc d LLLL')} at ${starts.toFormat('h:mm a')}`;
+  const when = `${starts.toFormat('cccc d LLLL')} at ${clockTime(starts.toFormat('HH:mm'))}`;
   return {
     to: f.to,
     subject: `Lesson to cover: ${f.lessonTitle} (${f.className}, ${starts.toFormat('d LLL')})`,
@@ -33,7 +34,7 @@ export function shareLinkMail(f: ShareMailFacts): OutgoingMail {
       `(no account needed):`,
       f.url,
       ``,
-      `The link works until ${until.toFormat('cccc d LLLL, h:mm a')}. Anyone with it can see this`,
+      `The link works until ${until.toFormat('cccc d LLLL')}, ${clockTime(until.toFormat('HH:mm'))}. Anyone with it can see this`,
       `lesson, so please do not pass it on. If you did not expect this, ignore this message.`,
     ].join('\n'),
   };

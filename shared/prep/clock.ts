@@ -1,4 +1,5 @@
 /** Formats the instants of one plan quickly and consistently. */
+import { clockTime } from '../text/clock.js';
 import { DAY_MS, formatWithOffset, offsetMinutes } from './time.js';
 
 /**
@@ -36,8 +37,8 @@ export class PlanClock {
     return s;
   }
 
-  /** The wall-clock time of day, `11:54`, for messages. */
-  hhmm(ms: number): string {
-    return this.iso(ms).slice(11, 16);
+  /** The wall-clock time of day for messages, in the one clock style: `11:54 am`. */
+  time(ms: number): string {
+    return clockTime(this.iso(ms));
   }
 }

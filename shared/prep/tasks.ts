@@ -136,7 +136,7 @@ function rechargeGaps(x: TaskInput, part: PrepPart, p: number): PrepWarning[] {
     out.push({
       code: 'recharge-gap',
       message:
-        `${listWords(shared)} ${verb} used in a lesson that ends at ${x.clock.hhmm(endMs)}, ` +
+        `${listWords(shared)} ${verb} used in a lesson that ends at ${x.clock.time(endMs)}, ` +
         `${left} to recharge the ${part.name} before this lesson; a full charge takes about ` +
         `${plural(full, 'minute')}.`,
     });

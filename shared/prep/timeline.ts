@@ -58,7 +58,7 @@ export function buildTimeline(
       message:
         `Activities overrun by ${plural(-slackMinutes, 'minute')}: set-out, activities and ` +
         `pack-away take ${plannedMinutes} minutes but the lesson is ${windowMinutes} minutes ` +
-        `long, so pack-away at ${clock.hhmm(packAwayStart)} cuts into the activities.`,
+        `long, so pack-away at ${clock.time(packAwayStart)} cuts into the activities.`,
     });
   }
   return {

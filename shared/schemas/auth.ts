@@ -28,6 +28,8 @@ export const sessionUserSchema = z.object({
 });
 export type SessionUser = z.infer<typeof sessionUserSchema>;
 export const userResponseSchema = z.object({ user: sessionUserSchema });
+/** GET /api/auth/session: the user, or null when signed out. */
+export const sessionResponseSchema = z.object({ user: sessionUserSchema.nullable() });
 
 export const resetRequestSchema = z.object({ email: emailSchema });
 export const resetCompleteSchema = z.object({

@@ -48,6 +48,11 @@ describe('sign-in and the shell', () => {
       problems.filter((p) => /Content Security Policy|Refused/.test(p)),
       [],
     );
+    // Being signed out is normal: no failed request (a 401 of /api/auth/me) in the console.
+    assert.deepEqual(
+      problems.filter((p) => /401|Unauthorized|Failed to load resource/.test(p)),
+      [],
+    );
     // The product font ships with the app and is really used.
     const family = await page.evaluate(() => getComputedStyle(document.body).fontFamily);
     assert.match(family, /Source Sans 3/);

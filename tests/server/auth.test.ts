@@ -38,6 +38,18 @@ describe('sign-in', () => {
     assert.equal(me.body.user.id, res.body.user.id);
   });
 
+  it('GET /api/auth/session answers 200 with null signed out and the user signed in (/me stays 401)', async () => {
+    const b = new Browser(t.app);
+    const out = await b.get('/api/auth/session');
+    assert.equal(out.status, 200);
+    assert.deepEqual(out.body, { user: null });
+    assert.equal((await b.get('/api/auth/me')).status, 401, 'API.md: /me is 401 signed out');
+    await b.signIn(TEACHER);
+    const inside = await b.get('/api/auth/session');
+    assert.equal(inside.status, 200);
+    assert.deepEqual(inside.body, (await b.get('/api/auth/me')).body);
+  });
+
   it('answers the same 401 for a wrong password and an unknown address', async () => {
     const wrong = await new Browser(t.app).signIn(TEACHER, 'not-the-password');
     const unknown = await new Browser(t.app).signIn(

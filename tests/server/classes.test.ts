@@ -2,7 +2,14 @@ import { after, before, describe, it } from 'node:test';
 import assert from 'node:assert/strict';
 import { eq } from 'drizzle-orm';
 import { Browser, signedIn, testApp, type TestApp } from '../support/app.js';
-import { ADMIN, OTHER_ADMIN, TEACHER, insertTestLesson, userByEmail } from '../support/planning.js';
+import {
+  ADMIN,
+  OTHER_ADMIN,
+  PARTNER,
+  TEACHER,
+  insertTestLesson,
+  userByEmail,
+} from '../support/planning.js';
 import { classes, classTeachers } from '../../server/db/schema/index.js';
 
 let t: TestApp;
@@ -77,6 +84,38 @@ describe('classes: who may do what', () => {
     }
     assert.equal(await classCount(), before);
     assert.equal((await admin.get(`/api/classes/${id}`)).body.class.devices, 5);
+  });
+
+  it("a teacher may not change or delete a colleague's class (403); its teachers and admins may", async () => {
+    const admin = await signedIn(t.app, ADMIN);
+    const partnerId = await userId(PARTNER);
+    const made = await newClass(admin, {
+      name: '4C',
+      yearLevel: 4,
+      studentCount: 25,
+      devices: 6,
+      teacherIds: [partnerId],
+    });
+    const teacher = await signedIn(t.app, TEACHER);
+    assert.equal((await teacher.get(`/api/classes/${made.id}`)).status, 200, 'still read');
+    const patched = await teacher.patch(`/api/classes/${made.id}`, { devices: 1 });
+    assert.equal(patched.status, 403);
+    assert.match(patched.body.error.message, /teachers of this class/);
+    assert.equal((await teacher.delete(`/api/classes/${made.id}`)).status, 403);
+    assert.deepEqual((await admin.get(`/api/classes/${made.id}`)).body.class, made);
+    // A class nobody teaches yet is the admins' to change.
+    const unowned = await newClass(admin, {
+      name: '4D',
+      yearLevel: 4,
+      studentCount: 20,
+      devices: 5,
+    });
+    assert.equal((await teacher.patch(`/api/classes/${unowned.id}`, { devices: 2 })).status, 403);
+
+    const partner = await signedIn(t.app, PARTNER);
+    assert.equal((await partner.patch(`/api/classes/${made.id}`, { devices: 7 })).status, 200);
+    assert.equal((await admin.patch(`/api/classes/${made.id}`, { devices: 8 })).status, 200);
+    assert.equal((await partner.delete(`/api/classes/${made.id}`)).status, 204);
   });
 
   it("another school's class is not found (404) and not listed", async () => {
@@ -236,6 +275,7 @@ describe('classes: changing and deleting', () => {
       yearLevel: 1,
       studentCount: 22,
       devices: 4,
+      teacherIds: [await userId(TEACHER)],
     });
     const partner = await userId('partner@kestrel-ridge.example');
     const res = await (

@@ -9,7 +9,7 @@ import assert from 'node:assert/strict';
 import { and, asc, eq } from 'drizzle-orm';
 import { getDocument, OPS } from 'pdfjs-dist/legacy/build/pdf.mjs';
 import { signedIn, testApp, type Browser, type TestApp } from '../support/app.js';
-import { download } from '../support/planning.js';
+import { download, insertLesson, insertUnit, userByEmail } from '../support/planning.js';
 import { lessons, schools, units } from '../../server/db/schema/index.js';
 import { closePdfPool } from '../../server/pdf/pool.js';
 import type { PrepPlan } from '../../shared/prep/index.js';
@@ -390,6 +390,36 @@ describe('the pack follows the school and the lesson as stored', () => {
     } finally {
       await db.update(lessons).set({ title: before!.title }).where(eq(lessons.id, lessonId));
     }
+  });
+});
+
+describe('lesson numbers in packs', () => {
+  it('numbers a lesson by its place in the unit, whatever its stored position (gaps, 1-based)', async () => {
+    const db = t.database.db;
+    const [demo] = await db.select().from(lessons).where(eq(lessons.id, lessonId));
+    const unit = await insertUnit(db, {
+      schoolId: demo!.schoolId,
+      ownerId: (await userByEmail(db, 'teacher@kestrel-ridge.example')).id,
+      title: 'Numbering check',
+      yearLevel: 4,
+    });
+    const base = {
+      unitId: unit,
+      schoolId: demo!.schoolId,
+      classId: demo!.classId,
+      kitTypeId: demo!.kitTypeId,
+      startsAt: demo!.startsAt,
+      endsAt: demo!.endsAt,
+      groupSize: 3,
+    };
+    // Positions as the API gives them (from 1) with a gap where a lesson was deleted.
+    await insertLesson(db, { ...base, title: 'First of two', position: 1 });
+    const second = await insertLesson(db, { ...base, title: 'Second of two', position: 3 });
+    const res = await download(teacher, `/api/lessons/${second}/pack.pdf`);
+    assert.equal(res.status, 200);
+    const text = (await readPdf(res.body as Buffer)).pages.map((p) => p.text).join('\n');
+    assert.ok(text.includes('Lesson 2 of 2'), 'numbered 2 of 2');
+    assert.ok(!/Lesson (3|4) of/.test(text), 'never past the count');
   });
 });
 

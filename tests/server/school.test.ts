@@ -1,9 +1,15 @@
 import { after, before, describe, it } from 'node:test';
 import assert from 'node:assert/strict';
-import { eq } from 'drizzle-orm';
+import { and, eq, ne } from 'drizzle-orm';
 import { Browser, signedIn, testApp, type TestApp } from '../support/app.js';
-import { ADMIN, OTHER_ADMIN, userByEmail } from '../support/planning.js';
-import { bellPeriods, schools, schoolSettings, terms } from '../../server/db/schema/index.js';
+import { ADMIN, OTHER_ADMIN, insertTestLesson, userByEmail } from '../support/planning.js';
+import {
+  bellPeriods,
+  lessons,
+  schools,
+  schoolSettings,
+  terms,
+} from '../../server/db/schema/index.js';
 import { DEFAULT_PREP, isIanaTimeZone } from '../../shared/schemas/school.js';
 import { DEFAULT_PREP_SETTINGS, prepSettingsSchema } from '../../shared/prep/schema.js';
 
@@ -182,6 +188,40 @@ describe('school settings: saving', () => {
     assert.equal(res.body.school.periods[2].name, 'Period 3 (after recess)');
     const stored = await t.database.db.select().from(terms).where(eq(terms.schoolId, s.id));
     assert.equal(stored.length, 3, 'a term left out is deleted');
+  });
+
+  it('lessons booked in a period follow its new times in the same save (date kept, version + 1)', async () => {
+    const admin = await signedIn(t.app, ADMIN);
+    const db = t.database.db;
+    const schoolId = await schoolIdOf(ADMIN);
+    const s = (await admin.get('/api/school')).body.school;
+    const period = s.periods[0] as { id: string; startsAt: string; endsAt: string };
+    const [some] = await db.select().from(lessons).where(eq(lessons.schoolId, schoolId)).limit(1);
+    const id = await insertTestLesson(db, await userByEmail(db, ADMIN), {
+      classId: some!.classId,
+      kitTypeId: some!.kitTypeId,
+      yearLevel: 4,
+      startsAt: `2026-08-04T${period.startsAt}:00`,
+      endsAt: `2026-08-04T${period.endsAt}:00`,
+    });
+    await db.update(lessons).set({ periodId: period.id }).where(eq(lessons.id, id));
+    const [booked] = await db.select().from(lessons).where(eq(lessons.id, id));
+    const periods = s.periods.map((p: { id: string; startsAt: string; endsAt: string }) =>
+      p.id === period.id ? { ...p, startsAt: '08:35', endsAt: '09:25' } : p,
+    );
+    const res = await put(admin, { ...form(s.version), periods, terms: s.terms });
+    assert.equal(res.status, 200, res.text);
+    const [moved] = await db.select().from(lessons).where(eq(lessons.id, booked!.id));
+    const day = booked!.startsAt.slice(0, 10);
+    assert.equal(moved!.startsAt.replace(' ', 'T').slice(0, 16), `${day}T08:35`);
+    assert.equal(moved!.endsAt.replace(' ', 'T').slice(0, 16), `${day}T09:25`);
+    assert.equal(moved!.version, booked!.version + 1, 'an editor opened before gets a 409');
+    // Lessons not booked in the period keep their times.
+    const others = await db
+      .select()
+      .from(lessons)
+      .where(and(eq(lessons.schoolId, schoolId), ne(lessons.id, id)));
+    for (const o of others) assert.notEqual(o.startsAt.replace(' ', 'T').slice(11, 16), '08:35');
   });
 
   it('refuses bad input with every issue listed (400) and changes nothing', async () => {

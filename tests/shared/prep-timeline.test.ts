@@ -223,7 +223,7 @@ describe('R9 prep tasks', () => {
     assert.deepEqual(
       plan.warnings.filter((w) => w.code === 'recharge-gap').map((w) => w.message),
       [
-        'Tub 2 is used in a lesson that ends at 10:00, leaving 70 minutes to recharge the ' +
+        'Tub 2 is used in a lesson that ends at 10:00 am, leaving 70 minutes to recharge the ' +
           'Controller before this lesson; a full charge takes about 180 minutes.',
       ],
     );

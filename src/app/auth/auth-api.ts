@@ -3,6 +3,7 @@ import { Injectable, inject } from '@angular/core';
 import { map, type Observable } from 'rxjs';
 import {
   invitationInfoSchema,
+  sessionResponseSchema,
   userResponseSchema,
   type InvitationInfo,
   type SessionUser,
@@ -21,6 +22,14 @@ export class AuthApi {
     return this.http
       .get('/api/auth/csrf', { context: callerShowsErrors(), responseType: 'text' })
       .pipe(map(() => undefined));
+  }
+
+  /** The signed-in user, or null when signed out (200 either way: nothing for the console). */
+  session(): Observable<SessionUser | null> {
+    return this.http.get('/api/auth/session', { context: callerShowsErrors() }).pipe(
+      parseWith(sessionResponseSchema),
+      map((body) => body.user),
+    );
   }
 
   /** The signed-in user; fails with a 401 AppError when signed out. */

@@ -2,7 +2,7 @@ import { HttpTestingController } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
 import { NETWORK_MESSAGE } from '../errors/app-error';
 import { Notifier } from '../errors/notifier';
-import { demoUser, errorBody, testProviders } from '../testing/test-providers';
+import { demoUser, testProviders } from '../testing/test-providers';
 import { Session } from './session';
 
 describe('Session', () => {
@@ -31,19 +31,18 @@ describe('Session', () => {
     backend.expectOne('/api/auth/csrf').flush('', { status: 204, statusText: 'No Content' });
     await tick();
     const user = demoUser('lead');
-    backend.expectOne('/api/auth/me').flush({ user });
+    backend.expectOne('/api/auth/session').flush({ user });
     await first;
     expect(session.user()).toEqual(user);
     expect(session.signedIn()).toBeTrue();
   });
 
-  it('takes a 401 from /api/auth/me as signed out, quietly', async () => {
+  it('asks /api/auth/session, whose 200 with no user means signed out, quietly (no 401)', async () => {
     const started = session.start();
     backend.expectOne('/api/auth/csrf').flush('', { status: 204, statusText: 'No Content' });
     await tick();
-    backend
-      .expectOne('/api/auth/me')
-      .flush(errorBody('signed-out', 'Sign in.'), { status: 401, statusText: 'Unauthorized' });
+    backend.expectNone('/api/auth/me');
+    backend.expectOne('/api/auth/session').flush({ user: null });
     await started;
     expect(session.user()).toBeNull();
     expect(notifier.error).not.toHaveBeenCalled();
@@ -53,7 +52,7 @@ describe('Session', () => {
     const started = session.start();
     backend.expectOne('/api/auth/csrf').error(new ProgressEvent('error'));
     await tick();
-    backend.expectOne('/api/auth/me').error(new ProgressEvent('error'));
+    backend.expectOne('/api/auth/session').error(new ProgressEvent('error'));
     await started;
     expect(session.user()).toBeNull();
     expect(notifier.error).toHaveBeenCalledOnceWith(NETWORK_MESSAGE);
@@ -63,7 +62,7 @@ describe('Session', () => {
     const started = session.start();
     backend.expectOne('/api/auth/csrf').flush('', { status: 204, statusText: 'No Content' });
     await tick();
-    backend.expectOne('/api/auth/me').flush({ user: { id: 'x', role: 'headmaster' } });
+    backend.expectOne('/api/auth/session').flush({ user: { id: 'x', role: 'headmaster' } });
     await started;
     expect(session.user()).toBeNull();
     expect(notifier.error).toHaveBeenCalled();

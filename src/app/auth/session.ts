@@ -22,8 +22,9 @@ export class Session {
   readonly signedIn = computed(() => this.current() !== null);
 
   /**
-   * Fetches the CSRF cookie, then `/api/auth/me`, once; later calls return the same promise.
-   * Never rejects: a 401 means signed out, other failures are shown and also mean signed out.
+   * Fetches the CSRF cookie, then `/api/auth/session`, once; later calls return the same
+   * promise. Never rejects: failures are shown and mean signed out. Asking `/session` rather
+   * than `/me` keeps a signed-out visit free of a 401 in the browser's console.
    */
   start(): Promise<void> {
     this.started ??= this.load();
@@ -33,7 +34,7 @@ export class Session {
   private async load(): Promise<void> {
     await firstValueFrom(this.refreshCsrf());
     try {
-      this.current.set(await firstValueFrom(this.api.me()));
+      this.current.set(await firstValueFrom(this.api.session()));
     } catch (error) {
       this.current.set(null);
       if (!(error instanceof AppError && error.status === 401)) {

@@ -39,6 +39,7 @@ import { KitsApi, type Conflicts, type ReplacementLine } from './kits-api';
 import { PartsTable, type PartSave } from './parts-table';
 import { TubDialog, type TubDialogData } from './tub-dialog';
 import { TubFormDialog, type TubFormData } from './tub-form-dialog';
+import { PluralPipe } from '../text/words';
 
 const DIALOG_WIDTH = 'min(32rem, calc(100vw - 2rem))';
 
@@ -55,6 +56,7 @@ interface DateRange {
 @Component({
   selector: 'app-kit-detail',
   imports: [
+    PluralPipe,
     RouterLink,
     ReactiveFormsModule,
     MatButtonModule,

@@ -44,6 +44,7 @@ import {
   MaterialsEditor,
   type MaterialRowForm,
 } from './materials-editor';
+import { PluralPipe } from '../text/words';
 
 /** Words for a file size ("2.4 MB"). */
 export function fileSize(bytes: number): string {
@@ -71,6 +72,7 @@ export function uploadMessage(error: unknown): string {
 @Component({
   selector: 'app-activity-editor',
   imports: [
+    PluralPipe,
     ReactiveFormsModule,
     MatButtonModule,
     MatFormFieldModule,

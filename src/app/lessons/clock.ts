@@ -5,6 +5,8 @@
  * converted to the browser's own timezone (a teacher abroad still sees the school's times).
  */
 
+import { clockTime as schoolClock } from '../../../shared/text/clock';
+
 const PATTERN = /^(\d{4})-(\d{2})-(\d{2})T(\d{2}):(\d{2})/;
 const DAYS = ['Sun', 'Mon', 'Tue', 'Wed', 'Thu', 'Fri', 'Sat'];
 const MONTHS = ['Jan', 'Feb', 'Mar', 'Apr', 'May', 'Jun', 'Jul', 'Aug', 'Sep', 'Oct', 'Nov', 'Dec'];
@@ -30,13 +32,12 @@ function read(value: string): WallClock | null {
   return { year, month, day, hour, minute };
 }
 
-/** `7:55 am`, `12:00 pm`, `12:05 am` (12-hour clock as school timetables print it). */
+/**
+ * `7:55 am`, `12:00 pm`: the one clock style of app and printables (shared/text/clock.ts, the
+ * school's locale through Intl).
+ */
 export function clockTime(value: string): string {
-  const t = read(value);
-  if (!t) return value;
-  const suffix = t.hour < 12 ? 'am' : 'pm';
-  const hour = t.hour % 12 === 0 ? 12 : t.hour % 12;
-  return `${hour}:${String(t.minute).padStart(2, '0')} ${suffix}`;
+  return schoolClock(value);
 }
 
 /** `Tue 28 Jul 2026`; the weekday comes from the calendar date alone (no timezone involved). */

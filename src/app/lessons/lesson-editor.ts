@@ -63,6 +63,9 @@ import {
 } from './lesson-form';
 import { LessonFormApi, type ReliefTeacher } from './lesson-form-api';
 import type { HasUnsavedChanges } from '../forms/unsaved-changes';
+import { plural } from '../../../shared/text/plural';
+import { clockSpan } from '../../../shared/text/clock';
+import { PluralPipe } from '../text/words';
 
 /** A stale save: the lesson as it is now, and the change that was not saved. */
 interface Conflict {
@@ -78,6 +81,7 @@ interface Conflict {
 @Component({
   selector: 'app-lesson-editor',
   imports: [
+    PluralPipe,
     ReactiveFormsModule,
     RouterLink,
     CdkDropList,
@@ -236,16 +240,16 @@ export class LessonEditor implements HasUnsavedChanges {
 
   protected tubLabel(tub: TubSummary): string {
     const notes = [this.tubStatus[tub.status]];
-    if (tub.missingPieces) notes.push(`${tub.missingPieces} pieces missing`);
+    if (tub.missingPieces) notes.push(`${plural(tub.missingPieces, 'piece')} missing`);
     return `${tub.label} (${notes.join(', ')})`;
   }
 
   protected periodLabel(p: BellPeriod): string {
-    return `${p.name}, ${p.startsAt}–${p.endsAt}`;
+    return `${p.name}, ${clockSpan(p.startsAt, p.endsAt)}`;
   }
 
   protected activitySummary(a: Activity): string {
-    const things = a.materials.length === 1 ? '1 material' : `${a.materials.length} materials`;
+    const things = plural(a.materials.length, 'material');
     return `${this.kindLabels[a.kind]} · ${a.minutes} min · ${things}`;
   }
 

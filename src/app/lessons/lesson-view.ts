@@ -35,6 +35,7 @@ import { Timeline } from './timeline';
 import { TrayBoard } from './tray-board';
 import { PrepTasks } from './prep-tasks';
 import { Session } from '../auth/session';
+import { PluralPipe } from '../text/words';
 
 type GroupsSuggestion = Extract<PrepSuggestion, { kind: 'groups' }>;
 
@@ -48,6 +49,7 @@ interface Conflict {
 @Component({
   selector: 'app-lesson-view',
   imports: [
+    PluralPipe,
     RouterLink,
     MatButtonModule,
     MatIconModule,

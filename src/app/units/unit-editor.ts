@@ -58,6 +58,7 @@ import {
 } from './unit-changes';
 import { UnitsApi } from './units-api';
 import type { HasUnsavedChanges } from '../forms/unsaved-changes';
+import { plural } from '../../../shared/text/plural';
 
 const outcomeIdsSchema = distinctIds(300, 'outcomes');
 
@@ -259,7 +260,7 @@ export class UnitEditor implements HasUnsavedChanges {
     if (!unit?.isOwner) return;
     confirm(this.dialog, {
       title: `Delete “${unit.title}”?`,
-      message: `This deletes the unit and its ${unit.lessons.length} lesson(s) with their activities. It cannot be undone.`,
+      message: `This deletes the unit and its ${plural(unit.lessons.length, 'lesson')} with their activities. It cannot be undone.`,
       confirm: 'Delete unit',
       cancel: 'Keep it',
       danger: true,
