@@ -464,6 +464,40 @@ describe('PATCH /api/units/:id', () => {
   });
 });
 
+describe('the units list: Last changed', () => {
+  it('moves when a lesson or an activity of the unit changes, and when a lesson goes', async () => {
+    const unit = await newUnit('Changing underneath');
+    const owner = await as(TEACHER);
+    const listed = async () =>
+      (await owner.get('/api/units?scope=mine')).body.units.find(
+        (u: { id: string }) => u.id === unit.id,
+      ).updatedAt as string;
+    const created = await listed();
+    const lesson = await addLesson(unit.id, 'Lesson to change', 24);
+    const afterAdd = await listed();
+    assert.ok(afterAdd > created, 'adding a lesson');
+    const full = (await owner.get(`/api/lessons/${lesson.id}`)).body;
+    const patched = await owner.patch(`/api/lessons/${lesson.id}`, {
+      version: full.version,
+      title: 'Lesson changed',
+    });
+    assert.equal(patched.status, 200, patched.text);
+    const afterPatch = await listed();
+    assert.ok(afterPatch > afterAdd, 'changing a lesson');
+    const activity = await owner.post(`/api/lessons/${lesson.id}/activities`, {
+      title: 'Warm-up',
+      kind: 'intro',
+      minutes: 5,
+      materials: [],
+    });
+    assert.equal(activity.status, 201, activity.text);
+    const afterActivity = await listed();
+    assert.ok(afterActivity > afterPatch, 'adding an activity');
+    assert.equal((await owner.delete(`/api/lessons/${lesson.id}`)).status, 204);
+    assert.ok((await listed()) > afterActivity, 'deleting a lesson');
+  });
+});
+
 describe('PUT /api/units/:id/lesson-order', () => {
   it('reorders the lessons in one go and bumps the version', async () => {
     const unit = await newUnit('Ordered');
