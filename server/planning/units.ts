@@ -7,6 +7,7 @@ import {
   outcomes,
   unitCoauthors,
   unitOutcomes,
+  terms,
   units,
   users,
 } from '../db/schema/index.js';
@@ -15,6 +16,7 @@ import { canEditUnit, canReadUnit, type Actor, type UnitFacts } from '../auth/po
 import type { Unit, UnitListQuery, UnitSummary } from '../../shared/schemas/units.js';
 import { likePattern, toLocal } from './format.js';
 import { basedOnOf } from '../reuse/based-on.js';
+import { outsideTermNote } from '../../shared/calendar/terms.js';
 
 function person(u: { id: string; name: string; email: string }) {
   return { id: u.id, name: u.name || u.email, email: u.email };
@@ -61,6 +63,10 @@ export async function unitDetail(tx: Tx, actor: Actor, unitId: string): Promise<
     .where(eq(lessons.unitId, unitId))
     .orderBy(asc(lessons.position), asc(lessons.createdAt));
   const u = row.unit;
+  const schoolTerms = await tx
+    .select({ name: terms.name, startsOn: terms.startsOn, endsOn: terms.endsOn })
+    .from(terms)
+    .where(eq(terms.schoolId, u.schoolId));
   const facts: UnitFacts = {
     schoolId: u.schoolId,
     ownerId: u.ownerId,
@@ -92,6 +98,7 @@ export async function unitDetail(tx: Tx, actor: Actor, unitId: string): Promise<
       endsAt: toLocal(l.endsAt),
       classId: l.classId,
       className: l.className,
+      termNote: outsideTermNote(toLocal(l.startsAt).slice(0, 10), u.term, schoolTerms),
     })),
     isOwner: canEditUnit(actor, facts) && u.ownerId === actor.id,
     basedOn: await basedOnOf(tx, actor, unitId),

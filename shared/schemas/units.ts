@@ -194,6 +194,8 @@ export const unitLessonSchema = z.object({
   endsAt: z.string(),
   classId: z.string(),
   className: z.string(),
+  /** Set when the lesson is dated outside the unit's term (shared/calendar/terms.ts). */
+  termNote: z.string().nullable().optional(),
 });
 
 export const unitOutcomeSchema = z.object({

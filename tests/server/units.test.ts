@@ -464,6 +464,36 @@ describe('PATCH /api/units/:id', () => {
   });
 });
 
+describe('lessons dated outside the unit term', () => {
+  it('are flagged in the unit (the seed has Term 3 from 2026-07-20 to 2026-09-25)', async () => {
+    const unit = await newUnit('Term check'); // term 3
+    await addLesson(unit.id, 'In term', 21);
+    const res = await (
+      await as(TEACHER)
+    ).post(`/api/units/${unit.id}/lessons`, {
+      title: 'In the holidays',
+      classId,
+      kitTypeId,
+      startsAt: '2026-10-01T11:10',
+      endsAt: '2026-10-01T12:00',
+      groupSize: 4,
+    });
+    assert.equal(res.status, 201, res.text);
+    const read = await (await as(TEACHER)).get(`/api/units/${unit.id}`);
+    const notes = read.body.lessons.map((l: { title: string; termNote: string | null }) => [
+      l.title,
+      l.termNote,
+    ]);
+    assert.deepEqual(notes, [
+      ['In term', null],
+      [
+        'In the holidays',
+        "Dated outside the unit's term: Term 3 runs 20 July 2026 to 25 Sept 2026.",
+      ],
+    ]);
+  });
+});
+
 describe('the units list: Last changed', () => {
   it('moves when a lesson or an activity of the unit changes, and when a lesson goes', async () => {
     const unit = await newUnit('Changing underneath');

@@ -68,6 +68,7 @@ function copiedUnit(): CopiedUnit {
         endsAt: '2026-10-13T12:00',
         classId: CLASS_4M,
         className: '4M',
+        termNote: null,
       },
       {
         id: 'l-2',
@@ -77,6 +78,7 @@ function copiedUnit(): CopiedUnit {
         endsAt: '2026-10-20T12:00',
         classId: CLASS_4M,
         className: '4M',
+        termNote: null,
       },
     ],
     isOwner: true,

@@ -47,6 +47,7 @@ const UNIT: Unit = {
       endsAt: '2026-07-21T12:00',
       classId: 'c',
       className: '4K',
+      termNote: null,
     },
     {
       id: 'l-2',
@@ -56,6 +57,7 @@ const UNIT: Unit = {
       endsAt: '2026-07-28T12:00',
       classId: 'c',
       className: '4K',
+      termNote: "Dated outside the unit's term: Term 3 runs 20 July 2026 to 25 Sept 2026.",
     },
   ],
   isOwner: true,
@@ -109,6 +111,12 @@ describe('UnitDetail', () => {
       ['Drive train', '/lessons/l-2'],
     ]);
     expect(el.textContent).toContain('Tue 28 Jul 2026, 11:10 am–12:00 pm');
+    const notes = Array.from(el.querySelectorAll('.lessons .term-note')).map((n) =>
+      n.textContent?.trim(),
+    );
+    expect(notes).toEqual([
+      "event_busy Dated outside the unit's term: Term 3 runs 20 July 2026 to 25 Sept 2026.",
+    ]);
     const history = Array.from(el.querySelectorAll('.history li')).map((li) =>
       li.textContent?.replace(/\s+/g, ' ').trim(),
     );

@@ -144,6 +144,12 @@ import { MatDialog } from '@angular/material/dialog';
                   {{ day(l.startsAt) }}, {{ clock(l.startsAt) }}–{{ clock(l.endsAt) }} ·
                   {{ l.className }}
                 </span>
+                @if (l.termNote) {
+                  <span class="term-note"
+                    ><mat-icon aria-hidden="true" inline>event_busy</mat-icon>
+                    {{ l.termNote }}</span
+                  >
+                }
               </li>
             }
           </ol>
@@ -157,6 +163,10 @@ import { MatDialog } from '@angular/material/dialog';
     </section>
   `,
   styles: `
+    .term-note {
+      display: block;
+      color: var(--mat-sys-error);
+    }
     .actions {
       display: flex;
       flex-wrap: wrap;

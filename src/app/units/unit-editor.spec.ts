@@ -54,6 +54,7 @@ function lesson(id: string, title: string, date: string): UnitLesson {
     endsAt: `${date}T12:00`,
     classId: 'c',
     className: '4K',
+    termNote: null,
   };
 }
 
