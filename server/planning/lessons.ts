@@ -20,6 +20,7 @@ import type { Activity, Lesson } from '../../shared/schemas/lessons.js';
 import { loadLessonFacts } from './access.js';
 import { naturalCompare } from '../../shared/prep/index.js';
 import { toLocal } from './format.js';
+import { bookingConflicts } from '../prep/booking-conflicts.js';
 
 /** Part code → name of a kit type's parts list. */
 async function partNames(tx: Tx, kitTypeId: string): Promise<Map<string, string>> {
@@ -151,5 +152,6 @@ export async function lessonDetail(tx: Tx, actor: Actor, lessonId: string): Prom
     canEdit: canEditUnit(actor, facts.unit),
     activities: await activitiesOf(tx, lessonId, l.kitTypeId),
     updatedAt: l.updatedAt.toISOString(),
+    bookingConflicts: await bookingConflicts(tx, lessonId),
   };
 }

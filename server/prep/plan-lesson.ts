@@ -15,6 +15,7 @@ import {
   type PrepPlan,
 } from '../../shared/prep/index.js';
 import { loadPrepInput } from './load.js';
+import { bookingConflicts } from './booking-conflicts.js';
 
 /** A lesson as planned now: the plan with its part names, or why the engine refused it. */
 export type LessonPlan =
@@ -47,6 +48,9 @@ export async function planLesson(tx: Tx, lessonId: string): Promise<LessonPlan |
     }));
     return { plannable: false, input, problems };
   }
+  // After the engine's own warnings: the lessons that double-book its tubs.
+  for (const c of await bookingConflicts(tx, lessonId))
+    plan.warnings.push({ code: 'booking-conflict', message: c.message });
   const known = new Map(input.parts.map((p) => [p.code, p]));
   const partNames: Record<string, string> = {};
   const parts: Record<string, LessonPart> = {};

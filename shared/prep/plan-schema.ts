@@ -77,6 +77,8 @@ export const WARNING_CODES = [
   'overrun',
   'spares-short',
   'recharge-gap',
+  // Added by the server (PREP-RULES.md, "Across lessons"), never by the engine.
+  'booking-conflict',
 ] as const;
 
 export const prepWarningSchema = z.object({ code: z.enum(WARNING_CODES), message: z.string() });

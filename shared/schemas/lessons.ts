@@ -281,6 +281,19 @@ export const activitySchema = z.object({
 export type Activity = z.infer<typeof activitySchema>;
 
 /** `GET /api/lessons/:id` (and every write of a lesson, and `error.current` of its 409). */
+/** Another lesson that books some of the same tubs at an overlapping time (PREP-RULES.md). */
+export const bookingConflictSchema = z.object({
+  lessonId: z.string(),
+  title: z.string(),
+  className: z.string(),
+  /** Local `YYYY-MM-DDTHH:MM`, school time. */
+  startsAt: z.string(),
+  endsAt: z.string(),
+  tubs: z.array(z.string()),
+  message: z.string(),
+});
+export type BookingConflict = z.infer<typeof bookingConflictSchema>;
+
 export const lessonSchema = z.object({
   id: z.string(),
   version: z.number(),
@@ -312,5 +325,7 @@ export const lessonSchema = z.object({
   canEdit: z.boolean(),
   activities: z.array(activitySchema),
   updatedAt: z.string(),
+  /** Lessons that double-book its tubs: saving answers them beside the lesson. */
+  bookingConflicts: z.array(bookingConflictSchema),
 });
 export type Lesson = z.infer<typeof lessonSchema>;

@@ -562,3 +562,59 @@ describe('PUT /api/lessons/:id/activity-order', () => {
     );
   });
 });
+
+describe('booking conflicts where the teacher plans (PREP-RULES.md, "Across lessons")', () => {
+  it('saving a lesson that double-books tubs answers the conflict beside it; the prep plan warns', async () => {
+    const unitId = await newUnit();
+    const day = { startsAt: '2026-11-03T11:10', endsAt: '2026-11-03T12:00' };
+    const first = await newLesson(unitId, {
+      ...day,
+      title: 'Gears first',
+      tubIds: [f.tub['Tub 1'], f.tub['Tub 2']],
+    });
+    assert.deepEqual(first.bookingConflicts, [], 'nothing else books those tubs then');
+    // Overlaps by 20 minutes and shares Tub 2.
+    const second = await newLesson(unitId, {
+      title: 'Gears second',
+      startsAt: '2026-11-03T11:40',
+      endsAt: '2026-11-03T12:30',
+      tubIds: [f.tub['Tub 2']],
+    });
+    assert.equal(second.bookingConflicts.length, 1);
+    const c = second.bookingConflicts[0];
+    assert.equal(c.lessonId, first.id);
+    assert.deepEqual(c.tubs, ['Tub 2']);
+    assert.equal(
+      c.message,
+      'Double-booked: Tub 2 is also booked for “Gears first” (4Q, Tue 3 Nov, 11:10 am–12:00 pm). ' +
+        'Move one lesson or book other tubs.',
+    );
+    const owner = await as(TEACHER);
+    const plan = (await owner.get(`/api/lessons/${first.id}/prep`)).body;
+    const warning = plan.warnings.find((w: { code: string }) => w.code === 'booking-conflict');
+    assert.ok(warning, 'the first lesson is warned too');
+    assert.match(
+      warning.message,
+      /Tub 2 is also booked for “Gears second” \(4Q, Tue 3 Nov, 11:40 am–12:30 pm\)/,
+    );
+
+    // Back to back is no conflict: [start, end) intervals.
+    const after = await newLesson(unitId, {
+      title: 'Gears after',
+      startsAt: '2026-11-03T12:30',
+      endsAt: '2026-11-03T13:20',
+      tubIds: [f.tub['Tub 2']],
+    });
+    assert.deepEqual(after.bookingConflicts, []);
+    const moved = await owner.patch(`/api/lessons/${second.id}`, {
+      version: second.version,
+      startsAt: '2026-11-03T13:00',
+      endsAt: '2026-11-03T13:50',
+    });
+    assert.equal(moved.status, 200, moved.text);
+    assert.deepEqual(
+      moved.body.bookingConflicts.map((x: { title: string }) => x.title),
+      ['Gears after'],
+    );
+  });
+});

@@ -64,6 +64,7 @@ function lesson(overrides: Partial<Lesson> = {}): Lesson {
     canEdit: true,
     activities: [],
     updatedAt: '2026-07-01T09:00:00+09:30',
+    bookingConflicts: [],
     ...overrides,
   };
 }
@@ -286,6 +287,41 @@ describe('LessonEditor', () => {
     second.flush(lesson({ version: 5, groupSize: 4, title: 'Build and test the rover' }));
     flushKit();
     expect(fixture.componentInstance.hasUnsavedChanges()).toBeFalse();
+  });
+
+  it('shows the booking conflicts the save answered beside the lesson, with a link to the other', async () => {
+    await start({ id: 'lesson-1' });
+    backend.expectOne('/api/lessons/lesson-1').flush(lesson());
+    flushKit();
+    fixture.detectChanges();
+    await (await input('Lesson title')).setValue('Build it twice');
+    await (await loader.getHarness(MatButtonHarness.with({ text: 'Save lesson' }))).click();
+    const message =
+      'Double-booked: Tub 2 is also booked for “Gears” (4B, Tue 28 Jul, 11:10 am–12:00 pm). ' +
+      'Move one lesson or book other tubs.';
+    backend.expectOne('/api/lessons/lesson-1').flush(
+      lesson({
+        version: 4,
+        title: 'Build it twice',
+        bookingConflicts: [
+          {
+            lessonId: 'other-1',
+            title: 'Gears',
+            className: '4B',
+            startsAt: '2026-07-28T11:10',
+            endsAt: '2026-07-28T12:00',
+            tubs: ['Tub 2'],
+            message,
+          },
+        ],
+      }),
+    );
+    flushKit();
+    fixture.detectChanges();
+    const box = (fixture.nativeElement as HTMLElement).querySelector('.booking-conflicts');
+    expect(box?.getAttribute('role')).toBe('alert');
+    expect(box?.textContent).toContain(message);
+    expect(box?.querySelector('a')?.getAttribute('href')).toBe('/lessons/other-1');
   });
 
   it('Reload after a 409 shows the lesson as it is now', async () => {

@@ -155,6 +155,7 @@ export function workedExampleLesson(overrides: Partial<Lesson> = {}): Lesson {
     canEdit: true,
     activities: [],
     updatedAt: '2026-07-20T09:00:00+09:30',
+    bookingConflicts: [],
     ...overrides,
   };
 }
