@@ -154,7 +154,10 @@ export function agendaRouter(ctx: AppContext): Router {
               // The engine's sentence names the part by name ("Group 8 is short of 1 × Rover …").
               message: s.message,
             })),
-            ...plan.warnings.map((w) => ({ lesson, kind: w.code, message: w.message })),
+            // Booking conflicts come once per pair from findConflicts below, not once per lesson.
+            ...plan.warnings
+              .filter((w) => w.code !== 'booking-conflict')
+              .map((w) => ({ lesson, kind: w.code, message: w.message })),
           ]
         : [{ lesson, kind: 'not-plannable', message: 'This lesson cannot be planned yet.' }],
     );

@@ -180,7 +180,7 @@ describe('KitDetail', () => {
     await settle();
     const request = backend.expectOne((r) => r.url === '/api/conflicts');
     expect(request.request.params.get('from')).toBe('2026-07-20');
-    expect(request.request.params.get('to')).toBe('2026-09-25');
+    expect(request.request.params.get('to')).toBe('2026-09-26'); // the To day included: the API's to is exclusive
     request.flush({ conflicts: [], rechargeGaps: [] });
   });
 

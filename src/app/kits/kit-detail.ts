@@ -36,6 +36,7 @@ import { ImportDialog, type ImportDialogData } from './import-dialog';
 import { KIT_EDITORS } from './kit-list';
 import { KitTypeEditDialog } from './kit-type-edit-dialog';
 import { KitsApi, type Conflicts, type ReplacementLine } from './kits-api';
+import { dayAfter, termThatMatters } from './term-range';
 import { PartsTable, type PartSave } from './parts-table';
 import { TubDialog, type TubDialogData } from './tub-dialog';
 import { TubFormDialog, type TubFormData } from './tub-form-dialog';
@@ -43,8 +44,8 @@ import { PluralPipe } from '../text/words';
 
 const DIALOG_WIDTH = 'min(32rem, calc(100vw - 2rem))';
 
-/** Term 3 of 2026 in the demo calendar, used when the school has no term around today. */
-export const DEFAULT_RANGE = { from: '2026-07-20', to: '2026-09-26' };
+/** Term 3 of 2026 in the demo calendar (both days included), used when the school has no term now or ahead. */
+export const DEFAULT_RANGE = { from: '2026-07-20', to: '2026-09-25' };
 
 /** The dates the booking conflicts are read for. */
 interface DateRange {
@@ -101,13 +102,16 @@ export class KitDetail {
     load: (id: string) => this.api.replacements(id),
   });
   protected readonly replacements = computed(() => this.replacementsRead.value() ?? []);
-  /** The school's term around today (null when there is none, or the terms did not load). */
+  /**
+   * The school's current term, else the next one (null when there is neither, or the terms did
+   * not load).
+   */
   private readonly termRead = apiResource({
     load: () =>
       this.api.terms().pipe(
         map((terms): DateRange | null => {
           const today = new Date().toISOString().slice(0, 10);
-          const term = terms.find((t) => t.startsOn <= today && today <= t.endsOn);
+          const term = termThatMatters(terms, today);
           return term ? { from: term.startsOn, to: term.endsOn } : null;
         }),
         catchError(() => of(null)),
@@ -117,7 +121,8 @@ export class KitDetail {
   private readonly conflictRange = signal<DateRange | undefined>(undefined);
   private readonly conflictsRead = apiResource({
     params: () => this.conflictRange(),
-    load: ({ from, to }: DateRange) => this.api.conflicts(from, to),
+    // The view's To day is included; the API's `to` is exclusive.
+    load: ({ from, to }: DateRange) => this.api.conflicts(from, dayAfter(to)),
   });
   protected readonly conflicts = computed<Conflicts | null>(
     () => this.conflictsRead.value() ?? null,
@@ -133,7 +138,7 @@ export class KitDetail {
   });
 
   constructor() {
-    // The conflicts start with the school's term around today when there is one, else term 3.
+    // The conflicts open on the school's current or next term when there is one, else term 3.
     effect(() => {
       const term = this.termRead.value();
       if (term === undefined) return;
