@@ -407,6 +407,16 @@ describe('seeding', () => {
     return rows.sort();
   }
 
+  it('stamps each unit Last changed at its last history entry, not at the time of seeding', async () => {
+    // The unit-changed triggers of migration 0009 stamp now() as lessons go in; the demo's units
+    // were last changed when their history says, which is also what keeps the seed repeatable.
+    const events = await d.db.select().from(s.unitEvents);
+    for (const u of data.units) {
+      const last = Math.max(...events.filter((e) => e.unitId === u.id).map((e) => +e.at));
+      assert.equal(+u.updatedAt, last, `${u.title}: ${u.updatedAt.toISOString()}`);
+    }
+  });
+
   it('a second seedDemo on a seeded database changes nothing', async () => {
     const db = await freshDatabase();
     try {
