@@ -28,6 +28,25 @@ function day(value: string): string {
     .replace(',', '');
 }
 
+/** Plain code-unit order: the same on every machine, whatever its locale. */
+const cmp = (a: string, b: string) => (a < b ? -1 : a > b ? 1 : 0);
+
+/**
+ * Earliest first, then by what the message shows (end, class, title, tubs), then by lesson id:
+ * a total order, so two lessons booked alike list the same warnings in the same order (a copy's
+ * plan equals the same lesson written from scratch), and a reload never reshuffles them.
+ */
+function byWhenThenId(a: BookingConflict, b: BookingConflict): number {
+  return (
+    cmp(a.startsAt, b.startsAt) ||
+    cmp(a.endsAt, b.endsAt) ||
+    cmp(a.className, b.className) ||
+    cmp(a.title, b.title) ||
+    cmp(a.tubs.join('\n'), b.tubs.join('\n')) ||
+    cmp(a.lessonId, b.lessonId)
+  );
+}
+
 /** The lessons that double-book this lesson's tubs, earliest first, each with its message. */
 export async function bookingConflicts(tx: Tx, lessonId: string): Promise<BookingConflict[]> {
   const result = await tx.execute(sql`
@@ -44,7 +63,7 @@ export async function bookingConflicts(tx: Tx, lessonId: string): Promise<Bookin
      WHERE l.id = ${lessonId}
        AND o.starts_at < l.ends_at AND l.starts_at < o.ends_at
      GROUP BY o.id, o.title, c.name, o.starts_at, o.ends_at
-     ORDER BY o.starts_at, o.title`);
+     ORDER BY o.starts_at, o.id`);
   const rows = result.rows as {
     id: string;
     title: string;
@@ -53,7 +72,7 @@ export async function bookingConflicts(tx: Tx, lessonId: string): Promise<Bookin
     ends_at: string;
     tubs: string[];
   }[];
-  return rows.map((r) => {
+  const conflicts = rows.map((r): BookingConflict => {
     const tubs = [...r.tubs].sort(naturalCompare);
     const startsAt = local(r.starts_at);
     const endsAt = local(r.ends_at);
@@ -70,4 +89,5 @@ export async function bookingConflicts(tx: Tx, lessonId: string): Promise<Bookin
         'Move one lesson or book other tubs.',
     };
   });
+  return conflicts.sort(byWhenThenId);
 }

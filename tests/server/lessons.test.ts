@@ -617,4 +617,55 @@ describe('booking conflicts where the teacher plans (PREP-RULES.md, "Across less
       ['Gears after'],
     );
   });
+
+  it('lists conflicts earliest first, then by end, then by lesson id, the same on every read', async () => {
+    const unitId = await newUnit();
+    const at = (from: string, to: string) => ({
+      startsAt: `2026-11-10T${from}`,
+      endsAt: `2026-11-10T${to}`,
+    });
+    // Created out of order: a longer lesson (whose title sorts first), three alike, then an
+    // earlier one.
+    const long = await newLesson(unitId, {
+      ...at('11:10', '12:50'),
+      title: 'Order across lunch',
+      tubIds: [f.tub['Tub 2']],
+    });
+    const alike: string[] = [];
+    for (let i = 0; i < 3; i++)
+      alike.push(
+        (
+          await newLesson(unitId, {
+            ...at('11:10', '12:00'),
+            title: 'Order alike',
+            tubIds: [f.tub['Tub 1']],
+          })
+        ).id,
+      );
+    const early = await newLesson(unitId, {
+      ...at('10:30', '11:40'),
+      title: 'Order early',
+      tubIds: [f.tub['Tub 1']],
+    });
+    const target = await newLesson(unitId, {
+      ...at('11:10', '12:00'),
+      title: 'Order target',
+      tubIds: [f.tub['Tub 1'], f.tub['Tub 2']],
+    });
+    const expected = [early.id, ...[...alike].sort(), long.id];
+    assert.deepEqual(
+      target.bookingConflicts.map((c: { lessonId: string }) => c.lessonId),
+      expected,
+    );
+    const owner = await as(TEACHER);
+    const again = (await owner.get(`/api/lessons/${target.id}`)).body;
+    assert.deepEqual(again.bookingConflicts, target.bookingConflicts);
+    const plan = (await owner.get(`/api/lessons/${target.id}/prep`)).body;
+    assert.deepEqual(
+      plan.warnings
+        .filter((w: { code: string }) => w.code === 'booking-conflict')
+        .map((w: { message: string }) => w.message),
+      target.bookingConflicts.map((c: { message: string }) => c.message),
+    );
+  });
 });
