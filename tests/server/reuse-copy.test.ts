@@ -456,7 +456,19 @@ describe('POST /api/units/:id/copy', () => {
       }),
     );
     const originalAfter = await lesson(TEACHER, sourceLessonIds[0]!);
-    assert.deepEqual(originalAfter, originalBefore, 'the original did not change');
+    // The copy keeps the original's day and tubs, so each answer names the other as a booking
+    // conflict (PREP-RULES.md, "Across lessons"): read live from the other lesson, so its new
+    // title shows there; the original's own fields stay as they were.
+    const { bookingConflicts: conflictsAfter, ...storedAfter } = originalAfter;
+    const { bookingConflicts: conflictsBefore, ...storedBefore } = originalBefore;
+    assert.deepEqual(storedAfter, storedBefore, 'the original did not change');
+    const ids = (list: { lessonId: string }[]) => list.map((c) => c.lessonId);
+    assert.deepEqual(ids(conflictsAfter), ids(conflictsBefore));
+    assert.ok(ids(conflictsAfter).includes(copiedLesson.id));
+    assert.equal(
+      conflictsAfter.find((c: { lessonId: string }) => c.lessonId === copiedLesson.id).title,
+      'Chassis (ours)',
+    );
 
     const snapshotBefore = await lesson(PARTNER, copiedLesson.id);
     const orig = await lesson(TEACHER, sourceLessonIds[0]!);
