@@ -144,7 +144,7 @@ describe('POST /api/units/:id/lessons', () => {
     });
     assert.equal(first.version, 1);
     assert.equal(first.position, 1);
-    assert.deepEqual(first.unit, { id: unitId, title: 'Lesson host unit' });
+    assert.deepEqual(first.unit, { id: unitId, title: 'Lesson host unit', status: 'draft' });
     assert.equal(first.class.name, '4Q');
     assert.equal(first.kitType.name, 'Trial Rover Tub');
     assert.equal(first.startsAt, '2026-07-28T11:10');
