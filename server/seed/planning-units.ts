@@ -173,7 +173,7 @@ export async function insertUnit(
     );
     await tx.insert(materials).values(rows);
   }
-  // The unit-changed triggers (migration 0010) stamp the unit with the clock's now() as its
+  // The unit-changed triggers (migration 0011) stamp the unit with the clock's now() as its
   // lessons, activities and materials go in; a seeded unit was last changed when it was made, so
   // the seed sets that stamp once everything is in, and seeding twice gives the same data.
   await tx.update(units).set({ updatedAt: place.createdAt }).where(eq(units.id, unitId));

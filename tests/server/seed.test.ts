@@ -408,7 +408,7 @@ describe('seeding', () => {
   }
 
   it('stamps each unit Last changed at its last history entry, not at the time of seeding', async () => {
-    // The unit-changed triggers of migration 0010 stamp now() as lessons go in; the demo's units
+    // The unit-changed triggers of migration 0011 stamp now() as lessons go in; the demo's units
     // were last changed when their history says, which is also what keeps the seed repeatable.
     const events = await d.db.select().from(s.unitEvents);
     for (const u of data.units) {

@@ -44,7 +44,10 @@ import { PluralPipe } from '../text/words';
 
 const DIALOG_WIDTH = 'min(32rem, calc(100vw - 2rem))';
 
-/** Term 3 of 2026 in the demo calendar (both days included), used when the school has no term now or ahead. */
+/**
+ * Term 3 of 2026 in the demo calendar, both days included: used when the school has no term now
+ * or ahead.
+ */
 export const DEFAULT_RANGE = { from: '2026-07-20', to: '2026-09-25' };
 
 /** The dates the booking conflicts are read for. */
