@@ -20,6 +20,7 @@ import {
   MAX_CSV_BYTES,
   MAX_PHOTO_BYTES,
   partsReplaceSchema,
+  partCreateSchema,
   partUpdateSchema,
   PHOTO_TYPES,
 } from '../../shared/schemas/kits.js';
@@ -35,7 +36,15 @@ import {
   updateKitType,
   withUniqueName,
 } from '../kits/kit-types.js';
-import { deletePartPhoto, partPhoto, savePartPhoto, updatePart } from '../kits/parts.js';
+import {
+  addPart,
+  deletePartPhoto,
+  partPhoto,
+  removePart,
+  savePartPhoto,
+  updatePart,
+} from '../kits/parts.js';
+import { deleteVersion } from '../db/versions.js';
 import { sendDownload, slug } from '../downloads.js';
 
 const partParamsSchema = z.object({ id: uuidSchema, partId: uuidSchema });
@@ -104,6 +113,25 @@ export function kitTypesRouter(ctx: AppContext): Router {
       await replaceParts(tx, id, body.parts);
       return oneKitType(tx, actor.schoolId, id);
     });
+    res.json({ kitType });
+  });
+
+  router.post('/:id/parts', kitFor('kits.edit'), async (req, res) => {
+    const actor = requireActor(req);
+    const body = parse(partCreateSchema, req.body);
+    const kitType = await ctx.db.transaction((tx) =>
+      addPart(tx, actor.schoolId, kitOf(res).id, body.version, body.part),
+    );
+    res.status(201).json({ kitType });
+  });
+
+  router.delete('/:id/parts/:partId', kitFor('kits.edit'), async (req, res) => {
+    const actor = requireActor(req);
+    const { partId } = parseParams(partParamsSchema, req);
+    const version = deleteVersion(req.query);
+    const kitType = await ctx.db.transaction((tx) =>
+      removePart(tx, actor.schoolId, kitOf(res).id, partId, version),
+    );
     res.json({ kitType });
   });
 

@@ -139,6 +139,13 @@ export const partsReplaceSchema = z.object({
 });
 export type PartsReplace = z.input<typeof partsReplaceSchema>;
 
+/** POST /api/kit-types/:id/parts: one part added by hand at the end of the list. */
+export const partCreateSchema = z.object({
+  version: versionSchema,
+  part: partInputSchema,
+});
+export type PartCreate = z.input<typeof partCreateSchema>;
+
 /** PATCH /api/kit-types/:id/parts/:partId: any fields of one part, with the kit type's version. */
 export const partUpdateSchema = z
   .object(partFields)

@@ -5,13 +5,24 @@ import { eq } from 'drizzle-orm';
 import { Browser, signedIn, testApp, type TestApp } from '../support/app.js';
 import {
   ADMIN,
+  LEAD,
   OTHER_ADMIN,
+  RELIEF,
   TEACHER,
   insertClass,
   insertTestLesson,
   userByEmail,
 } from '../support/planning.js';
-import { kitTypes, partPhotos, parts, tubMissing, tubs } from '../../server/db/schema/index.js';
+import {
+  activities,
+  kitTypes,
+  lessons,
+  materials,
+  partPhotos,
+  parts,
+  tubMissing,
+  tubs,
+} from '../../server/db/schema/index.js';
 
 let t: TestApp;
 before(async () => {
@@ -408,6 +419,145 @@ describe('parts list editing', () => {
       missingRows.map((r) => [r.partCode, r.count]),
       [['TK-031', 12]],
     );
+  });
+});
+
+describe('one part added or removed by hand', () => {
+  it('POST adds a part at the end (201); a taken code, bad fields or a stale version change nothing', async () => {
+    const admin = await signedIn(t.app, ADMIN);
+    const kit = await newKit(admin, 'Add Part Kit');
+    const part = { code: 'TK-040', name: 'Spacer ring', category: 'structure', qty: 12 };
+    const res = await admin.post(`/api/kit-types/${kit.id}/parts`, { version: kit.version, part });
+    assert.equal(res.status, 201, res.text);
+    assert.equal(res.body.kitType.version, kit.version + 1);
+    assert.deepEqual(
+      res.body.kitType.parts.map((p: { code: string }) => p.code),
+      ['TK-010', 'TK-020', 'TK-030', 'TK-040'],
+    );
+    const added = res.body.kitType.parts[3];
+    assert.deepEqual(
+      [added.name, added.category, added.qty, added.small, added.chargeMinutes],
+      ['Spacer ring', 'structure', 12, false, null],
+    );
+    const now = res.body.kitType.version;
+    const taken = await admin.post(`/api/kit-types/${kit.id}/parts`, {
+      version: now,
+      part: { ...part, name: 'Another' },
+    });
+    assert.equal(taken.status, 409);
+    assert.equal(taken.body.error.code, 'code-taken');
+    const bad = await admin.post(`/api/kit-types/${kit.id}/parts`, {
+      version: now,
+      part: { code: '', name: 'x\u0000', qty: -1, category: 'gizmo' },
+    });
+    assert.equal(bad.status, 400);
+    assert.deepEqual(bad.body.error.details.map((d: { path: string }) => d.path).sort(), [
+      'part.category',
+      'part.code',
+      'part.name',
+      'part.qty',
+    ]);
+    const stale = await admin.post(`/api/kit-types/${kit.id}/parts`, {
+      version: kit.version,
+      part: { ...part, code: 'TK-050' },
+    });
+    assert.equal(stale.status, 409);
+    assert.equal(stale.body.error.code, 'stale-version');
+    const stored = await t.database.db.select().from(parts).where(eq(parts.kitTypeId, kit.id));
+    assert.equal(stored.length, 4, 'nothing else was added');
+  });
+
+  it('DELETE removes an unused part with its photo and missing counts; a part in a lesson is refused (409)', async () => {
+    const admin = await signedIn(t.app, ADMIN);
+    const kit = await newKit(admin, 'Remove Part Kit');
+    const peg = kit.parts[2];
+    await upload(
+      admin,
+      `/api/kit-types/${kit.id}/parts/TK-030/photo`,
+      PNG_1X1,
+      'peg.png',
+      'image/png',
+    );
+    const tub = (await admin.post('/api/tubs', { kitTypeId: kit.id, label: 'Tub R' })).body.tub;
+    await admin.post(`/api/tubs/${tub.id}/audits`, {
+      missing: [{ partCode: 'TK-030', count: 3 }],
+    });
+    const version = (await admin.get(`/api/kit-types/${kit.id}`)).body.kitType.version;
+    const stale = await admin.delete(
+      `/api/kit-types/${kit.id}/parts/${peg.id}?version=${version - 1}`,
+    );
+    assert.equal(stale.status, 409);
+    const res = await admin.delete(`/api/kit-types/${kit.id}/parts/${peg.id}?version=${version}`);
+    assert.equal(res.status, 200, res.text);
+    assert.deepEqual(
+      res.body.kitType.parts.map((p: { code: string }) => p.code),
+      ['TK-010', 'TK-020'],
+    );
+    assert.deepEqual((await admin.get(`/api/tubs/${tub.id}`)).body.tub.missing, []);
+    assert.equal(
+      (await admin.get(`/api/kit-types/${kit.id}/parts/TK-030/photo`)).status,
+      404,
+      'the photo went with the part',
+    );
+    assert.equal(
+      (await admin.delete(`/api/kit-types/${kit.id}/parts/${peg.id}`)).status,
+      404,
+      'gone',
+    );
+
+    // A part that an activity lists: the lesson's plan would break, so it stays.
+    await lessonUsing(kit.id);
+    const db = t.database.db;
+    const [lesson] = await db.select().from(lessons).where(eq(lessons.kitTypeId, kit.id));
+    const [activity] = await db
+      .insert(activities)
+      .values({ lessonId: lesson!.id, title: 'Build', kind: 'build', minutes: 20, position: 0 })
+      .returning();
+    await db.insert(materials).values({
+      activityId: activity!.id,
+      position: 0,
+      partCode: 'TK-020',
+      qty: 2,
+      per: 'group',
+      returnable: true,
+    });
+    const motor = kit.parts[1];
+    const refused = await admin.delete(`/api/kit-types/${kit.id}/parts/${motor.id}`);
+    assert.equal(refused.status, 409);
+    assert.equal(refused.body.error.code, 'part-in-use');
+    assert.match(
+      refused.body.error.message,
+      /TK-020 Drive motor is in the materials of “A test lesson”/,
+    );
+    assert.equal(
+      (await db.select().from(parts).where(eq(parts.id, motor.id))).length,
+      1,
+      'still listed',
+    );
+  });
+
+  it('a teacher of another school, a lead and a relief teacher cannot add or remove parts', async () => {
+    const admin = await signedIn(t.app, ADMIN);
+    const kit = await newKit(admin, 'Guarded Part Kit');
+    const part = { code: 'TK-060', name: 'Rod clip', qty: 4 };
+    for (const [email, status] of [
+      [LEAD, 403],
+      [RELIEF, 403],
+      [OTHER_ADMIN, 404],
+    ] as const) {
+      const b = await signedIn(t.app, email);
+      assert.equal(
+        (await b.post(`/api/kit-types/${kit.id}/parts`, { version: kit.version, part })).status,
+        status,
+        email,
+      );
+      assert.equal(
+        (await b.delete(`/api/kit-types/${kit.id}/parts/${kit.parts[0].id}`)).status,
+        status,
+        email,
+      );
+    }
+    assert.equal((await admin.get(`/api/kit-types/${kit.id}`)).body.kitType.parts.length, 3);
   });
 });
 
