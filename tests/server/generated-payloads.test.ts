@@ -296,6 +296,10 @@ const ROUTES: Route[] = [
     version: 1,
     parts: [{ code: 'Z-1', name: 'Z', qty: 1 }],
   }),
+  r('kit-types.ts POST /:id/parts', 'admin', () => `/api/kit-types/${ids['kit']}/parts`, {
+    version: 1,
+    part: { code: 'Z-2', name: 'Z', qty: 1, category: 'other' },
+  }),
   r(
     'kit-types.ts PATCH /:id/parts/:partId',
     'admin',
@@ -415,6 +419,13 @@ const ROUTES: Route[] = [
     'teacher',
     () => `/api/activities/${ids['activity']}/attachments`,
     { file: 'x' },
+  ),
+  r(
+    'kit-types.ts DELETE /:id/parts/:partId',
+    'admin',
+    () => `/api/kit-types/${ids['kit']}/parts/${ids['part']}`,
+    { version: 1 },
+    true,
   ),
   r(
     'kit-types.ts DELETE /:id/parts/:code/photo',
