@@ -24,7 +24,7 @@ import type { UploadEvent } from './transfer';
         class="visually-hidden"
         type="file"
         accept=".csv,text/csv"
-        (change)="pick($any($event.target).files)"
+        (change)="picked($any($event.target))"
       />
       <p>
         <button
@@ -118,6 +118,16 @@ export class CsvImport<T> {
   protected readonly percent = signal<number | null>(null);
   protected readonly message = signal<string | null>(null);
   protected readonly rows = signal<readonly ApiErrorDetail[]>([]);
+
+  /**
+   * Takes the file from the picker, then empties the picker: choosing the same file again (say,
+   * after correcting it) must fire `change` again and be read afresh. Without this the browser
+   * sees no change, and the old File, whose bytes changed on disk, can no longer be read.
+   */
+  protected picked(picker: HTMLInputElement): void {
+    this.pick(picker.files ? [...picker.files] : null);
+    picker.value = '';
+  }
 
   /** Takes the chosen file; a file over the limit is refused before it is sent. */
   pick(files: FileList | File[] | null): void {

@@ -129,6 +129,43 @@ describe('ImportDialog', () => {
     expect(await loader.getAllHarnesses(MatTableHarness)).toEqual([]);
   });
 
+  it('imports a corrected file chosen again under the same name (the picker is emptied after each choice)', async () => {
+    const picker = (fixture.nativeElement as HTMLElement).querySelector(
+      'input[type="file"]',
+    ) as HTMLInputElement;
+    const choose = (file: File) => {
+      const transfer = new DataTransfer();
+      transfer.items.add(file);
+      picker.files = transfer.files;
+      picker.dispatchEvent(new Event('change'));
+      fixture.detectChanges();
+    };
+    choose(new File(['code,name,qty\r\nA,Axle,x\r\n'], 'parts.csv', { type: 'text/csv' }));
+    // An emptied picker fires "change" again when the same file is chosen (HTML, the input
+    // element's "change" event fires only when the selection changed).
+    expect(picker.value).toBe('');
+    await (await loader.getHarness(MatButtonHarness.with({ text: 'Import' }))).click();
+    backend.expectOne(URL).flush(
+      {
+        error: {
+          code: 'csv-rows',
+          message: '1 line needs attention. Nothing was imported.',
+          details: [{ path: '', line: 2, column: 'qty', message: 'Use a whole number.' }],
+        },
+      },
+      { status: 422, statusText: 'Unprocessable Content' },
+    );
+    fixture.detectChanges();
+
+    choose(new File([CSV], 'parts.csv', { type: 'text/csv' }));
+    expect(picker.value).toBe('');
+    await (await loader.getHarness(MatButtonHarness.with({ text: 'Import' }))).click();
+    const again = backend.expectOne(URL);
+    expect(await ((again.request.body as FormData).get('file') as File).text()).toBe(CSV);
+    again.flush({ imported: 1 });
+    expect(close).toHaveBeenCalledOnceWith(1);
+  });
+
   it('refuses a file over the 2 MB limit before sending it', async () => {
     const big = new File([new Uint8Array(MAX_CSV_BYTES + 1)], 'huge.csv', { type: 'text/csv' });
     csvImport().pick([big]);

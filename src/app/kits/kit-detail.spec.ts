@@ -242,6 +242,85 @@ describe('KitDetail', () => {
     expect((fixture.nativeElement as HTMLElement).querySelector('.form-error')).toBeNull();
   });
 
+  it('adds a part with the version; a code already used brings the typed row back', async () => {
+    await setUp('teacher');
+    await (await loader.getHarness(MatButtonHarness.with({ text: /Add a part/ }))).click();
+    const field = (label: string) =>
+      loader.getHarness(MatInputHarness.with({ selector: `[aria-label="${label}"]` }));
+    await (await field('Code')).setValue('RB-PEG');
+    await (await field('Name')).setValue('Spacer ring');
+    await (await field('Qty per tub')).setValue('12');
+    await (await loader.getHarness(MatButtonHarness.with({ text: 'Add' }))).click();
+    const first = backend.expectOne(`/api/kit-types/${KIT_ID}/parts`);
+    expect(first.request.method).toBe('POST');
+    expect(first.request.body).toEqual({
+      version: 3,
+      part: {
+        code: 'RB-PEG',
+        name: 'Spacer ring',
+        colour: null,
+        category: 'other',
+        qty: 12,
+        compartment: null,
+        small: false,
+        chargeMinutes: null,
+      },
+    });
+    first.flush(errorBody('code-taken', 'Another part already has the code RB-PEG.'), {
+      status: 409,
+      statusText: 'Conflict',
+    });
+    fixture.detectChanges();
+    await fixture.whenStable();
+    // The row is back with what was typed, to correct the code.
+    expect(await (await field('Name')).getValue()).toBe('Spacer ring');
+    await (await field('Code')).setValue('RB-RNG');
+    await (await loader.getHarness(MatButtonHarness.with({ text: 'Add' }))).click();
+    const second = backend.expectOne(`/api/kit-types/${KIT_ID}/parts`);
+    expect((second.request.body as { part: { code: string } }).part.code).toBe('RB-RNG');
+    const withRing = kit(4, 4);
+    withRing.parts.push({ ...withRing.parts[0]!, id: 'p3', code: 'RB-RNG', name: 'Spacer ring' });
+    second.flush({ kitType: withRing }, { status: 201, statusText: 'Created' });
+    await settle();
+    backend.expectOne(`/api/tubs?kitTypeId=${KIT_ID}`).flush({ tubs: [] });
+    fixture.detectChanges();
+    await fixture.whenStable();
+    const table = await loader.getHarness(MatTableHarness);
+    expect((await table.getCellTextByColumnName())['code']?.text).toEqual([
+      'RB-PEG',
+      'RB-WHL',
+      'RB-RNG',
+    ]);
+  });
+
+  it('removes a part after asking, with the version; a part lessons use stays (409 in the dialog)', async () => {
+    await setUp('teacher');
+    await (
+      await loader.getHarness(MatButtonHarness.with({ selector: '[aria-label="Remove RB-WHL"]' }))
+    ).click();
+    const dialog = TestbedHarnessEnvironment.documentRootLoader(fixture);
+    await (await dialog.getHarness(MatButtonHarness.with({ text: 'Remove RB-WHL' }))).click();
+    const request = backend.expectOne((r) => r.url === `/api/kit-types/${KIT_ID}/parts/p2`);
+    expect(request.request.method).toBe('DELETE');
+    expect(request.request.params.get('version')).toBe('3');
+    const message = 'RB-WHL Wheel is in the materials of “Lesson 2” (Rescue rovers).';
+    request.flush(errorBody('part-in-use', message), { status: 409, statusText: 'Conflict' });
+    fixture.detectChanges();
+    await fixture.whenStable();
+    expect(document.querySelector('mat-dialog-container [role="alert"]')?.textContent).toContain(
+      message,
+    );
+    // Clicked directly: a harness click would wait for the read that closing starts.
+    const close = [...document.querySelectorAll('mat-dialog-container button')].find(
+      (b) => b.textContent?.trim() === 'Close',
+    ) as HTMLButtonElement;
+    close.click();
+    jasmine.clock().tick(1000);
+    await settle();
+    // The list is read again, in case the refusal came from a newer one.
+    backend.expectOne(`/api/kit-types/${KIT_ID}`).flush({ kitType: kit(3, 4) });
+  });
+
   it('refuses to delete a kit type that lessons use (409) with the server message', async () => {
     await setUp('teacher');
     const navigate = spyOn(TestBed.inject(Router), 'navigate');

@@ -7,6 +7,7 @@ import {
   input,
   signal,
   untracked,
+  viewChild,
 } from '@angular/core';
 import { FormControl, FormGroup, ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
@@ -17,7 +18,7 @@ import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatTableModule } from '@angular/material/table';
 import { Router, RouterLink } from '@angular/router';
-import { catchError, map, of } from 'rxjs';
+import { catchError, map, of, tap } from 'rxjs';
 import {
   TUB_STATUS_LABELS,
   kitTypeSchema,
@@ -35,9 +36,15 @@ import { confirmDelete } from './delete-dialog';
 import { ImportDialog, type ImportDialogData } from './import-dialog';
 import { KIT_EDITORS } from './kit-list';
 import { KitTypeEditDialog } from './kit-type-edit-dialog';
-import { KitsApi, type Conflicts, type ReplacementLine } from './kits-api';
+import { KitsApi, type Conflicts, type NewPart, type ReplacementLine } from './kits-api';
 import { dayAfter, termThatMatters } from './term-range';
 import { PartsTable, type PartSave } from './parts-table';
+
+/** An edit refused as stale: what it was, in words, and how to send it again. */
+interface StaleEdit {
+  what: string;
+  retry: (version: number) => void;
+}
 import { TubDialog, type TubDialogData } from './tub-dialog';
 import { TubFormDialog, type TubFormData } from './tub-form-dialog';
 import { PluralPipe } from '../text/words';
@@ -131,7 +138,8 @@ export class KitDetail {
     () => this.conflictsRead.value() ?? null,
   );
   /** An edit the server refused as stale, kept so it can be re-applied on the new version. */
-  protected readonly stale = signal<PartSave | null>(null);
+  protected readonly stale = signal<StaleEdit | null>(null);
+  private readonly partsTable = viewChild(PartsTable);
   protected readonly canEdit = computed(() =>
     KIT_EDITORS.includes(this.session.user()?.role ?? ''),
   );
@@ -186,13 +194,44 @@ export class KitDetail {
     this.send(request, kit.version);
   }
 
+  /** Adds a part typed in the table; a taken code reopens the row with what was typed. */
+  protected addPart(part: NewPart): void {
+    const kit = this.kit();
+    if (!kit) return;
+    this.sendAdd(part, kit.version);
+  }
+
+  /** Removes a part after asking; the server refuses (409) while activities list it. */
+  protected removePart(part: Part): void {
+    const kit = this.kit();
+    if (!kit) return;
+    confirmDelete(this.dialog, {
+      title: `Remove ${part.code} ${part.name}?`,
+      message:
+        `This removes ${part.code} from the parts list of ${kit.name}, with its photo and the ` +
+        'tubs’ missing counts of it.',
+      confirm: `Remove ${part.code}`,
+      run: () =>
+        this.api.removePart(kit.id, part.id, kit.version).pipe(tap((k) => this.kitRead.set(k))),
+    }).subscribe((gone) => {
+      if (gone) {
+        this.notifier.info(`${part.code} is removed.`);
+        this.tubsRead.reload();
+        this.replacementsRead.reload();
+      } else {
+        // A refusal may come from a newer list (stale version): show the list as saved now.
+        this.kitRead.reload();
+      }
+    });
+  }
+
   /** Sends the refused edit again on the version the server holds now. */
   protected reapply(): void {
-    const request = this.stale();
+    const edit = this.stale();
     const kit = this.kit();
-    if (!request || !kit) return;
+    if (!edit || !kit) return;
     this.stale.set(null);
-    this.send(request, kit.version);
+    edit.retry(kit.version);
   }
 
   protected importCsv(kit: KitType): void {
@@ -318,9 +357,43 @@ export class KitDetail {
           // Show the list as it is now; the person chooses to re-apply or leave it.
           if (conflict.current) this.kitRead.set(conflict.current);
           else this.load();
-          this.stale.set(request);
+          this.stale.set({
+            what: `your change to ${request.part.code}`,
+            retry: (v) => this.send(request, v),
+          });
         } else if (error instanceof AppError) {
           this.notifier.error(error.message);
+        }
+      },
+    });
+  }
+
+  private sendAdd(part: NewPart, version: number): void {
+    const id = this.id();
+    this.saving.set(true);
+    this.api.addPart(id, version, part).subscribe({
+      next: (kit) => {
+        this.saving.set(false);
+        this.kitRead.set(kit);
+        this.notifier.info(`${part.code} is added.`);
+        this.tubsRead.reload();
+      },
+      error: (error: unknown) => {
+        this.saving.set(false);
+        const conflict = staleConflict(error, kitTypeSchema);
+        if (conflict) {
+          if (conflict.current) this.kitRead.set(conflict.current);
+          else this.load();
+          this.stale.set({
+            what: `your new part ${part.code}`,
+            retry: (v) => this.sendAdd(part, v),
+          });
+          return;
+        }
+        if (error instanceof AppError) {
+          this.notifier.error(error.message);
+          // What was typed comes back, to correct (e.g. a code another part has).
+          this.partsTable()?.startAdding(part);
         }
       },
     });

@@ -48,6 +48,8 @@ export type Conflicts = z.infer<typeof conflictsSchema>;
 
 /** The fields of a part the inline editor may change. */
 export type PartChange = Partial<Omit<Part, 'id' | 'hasPhoto'>>;
+/** A part added by hand: every field of a part but its id and photo. */
+export type NewPart = Omit<Part, 'id' | 'hasPhoto'>;
 
 /** Progress of a part photo upload, then the part as saved (with `hasPhoto`). */
 export type PhotoProgress =
@@ -102,6 +104,24 @@ export class KitsApi {
   updatePart(id: string, partId: string, version: number, change: PartChange): Observable<KitType> {
     const url = `/api/kit-types/${encodeURIComponent(id)}/parts/${encodeURIComponent(partId)}`;
     return this.http.patch(url, { version, ...change }, { context: callerShowsErrors() }).pipe(
+      parseWith(kitTypeResponseSchema),
+      map((b) => b.kitType),
+    );
+  }
+
+  /** Adds one part at the end of the list; the page shows a 409 (stale, code taken) itself. */
+  addPart(id: string, version: number, part: NewPart): Observable<KitType> {
+    const url = `/api/kit-types/${encodeURIComponent(id)}/parts`;
+    return this.http.post(url, { version, part }, { context: callerShowsErrors() }).pipe(
+      parseWith(kitTypeResponseSchema),
+      map((b) => b.kitType),
+    );
+  }
+
+  /** Removes one part; a 409 (in use by lessons, or stale) is shown by the asking dialog. */
+  removePart(id: string, partId: string, version: number): Observable<KitType> {
+    const url = `/api/kit-types/${encodeURIComponent(id)}/parts/${encodeURIComponent(partId)}`;
+    return this.http.delete(url, { params: { version }, context: callerShowsErrors() }).pipe(
       parseWith(kitTypeResponseSchema),
       map((b) => b.kitType),
     );

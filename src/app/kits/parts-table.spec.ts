@@ -8,6 +8,7 @@ import { MatSortHarness } from '@angular/material/sort/testing';
 import { MatTableHarness } from '@angular/material/table/testing';
 import type { Part } from '../../../shared/schemas/kits';
 import { testProviders } from '../testing/test-providers';
+import type { NewPart } from './kits-api';
 import { PartsTable, type PartSave } from './parts-table';
 
 /** Invented parts of the invented demo kit type. */
@@ -184,5 +185,55 @@ describe('PartsTable', () => {
     await (await loader.getHarness(MatButtonHarness.with({ text: 'Save' }))).click();
     expect(saves).toEqual([]);
     expect(fixture.nativeElement.textContent).toContain('Use a whole number from 0 to 10000.');
+  });
+
+  it('adds a part in a new first row and emits every field of it', async () => {
+    await setUp(PARTS, true);
+    const added: NewPart[] = [];
+    fixture.componentInstance.add.subscribe((p) => added.push(p));
+    await (await loader.getHarness(MatButtonHarness.with({ text: /Add a part/ }))).click();
+    expect((await column('code')).length).toBe(5);
+    const field = (label: string) =>
+      loader.getHarness(MatInputHarness.with({ selector: `[aria-label="${label}"]` }));
+    await (await field('Code')).setValue('RB-RNG');
+    await (await field('Name')).setValue('Spacer ring');
+    await (await field('Qty per tub')).setValue('12');
+    await (await loader.getHarness(MatButtonHarness.with({ text: 'Add' }))).click();
+    expect(added).toEqual([
+      {
+        code: 'RB-RNG',
+        name: 'Spacer ring',
+        colour: null,
+        category: 'other',
+        qty: 12,
+        compartment: null,
+        small: false,
+        chargeMinutes: null,
+      },
+    ]);
+    // The new row closes; the page adds the part and gives the new list.
+    expect(await column('code')).toEqual(['RB-CTL', 'RB-MOT', 'RB-PEG', 'RB-WHL']);
+  });
+
+  it('a new part without a code or name is not sent; Cancel drops the row', async () => {
+    await setUp(PARTS, true);
+    const added: NewPart[] = [];
+    fixture.componentInstance.add.subscribe((p) => added.push(p));
+    await (await loader.getHarness(MatButtonHarness.with({ text: /Add a part/ }))).click();
+    await (await loader.getHarness(MatButtonHarness.with({ text: 'Add' }))).click();
+    expect(added).toEqual([]);
+    expect(fixture.nativeElement.textContent).toContain('Enter a part code.');
+    await (await loader.getHarness(MatButtonHarness.with({ text: 'Cancel' }))).click();
+    expect(await column('code')).toEqual(['RB-CTL', 'RB-MOT', 'RB-PEG', 'RB-WHL']);
+  });
+
+  it('asks the page to remove a part from its row', async () => {
+    await setUp(PARTS, true);
+    const removed: Part[] = [];
+    fixture.componentInstance.remove.subscribe((p) => removed.push(p));
+    await (
+      await loader.getHarness(MatButtonHarness.with({ selector: '[aria-label="Remove RB-MOT"]' }))
+    ).click();
+    expect(removed.map((p) => p.id)).toEqual(['p2']);
   });
 });

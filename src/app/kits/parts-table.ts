@@ -3,6 +3,7 @@ import {
   Component,
   computed,
   effect,
+  untracked,
   input,
   output,
   signal,
@@ -28,8 +29,11 @@ import {
 } from '../../../shared/schemas/kits';
 import { FieldErrorPipe } from '../forms/field-error';
 import { zodValidator } from '../forms/validators';
-import type { PartChange } from './kits-api';
+import type { NewPart, PartChange } from './kits-api';
 import { PartPhoto } from './part-photo';
+
+/** The id of the row being added (never a real part's id, which is a UUID). */
+export const NEW_PART_ID = 'new-part';
 
 /** A request to save one edited row. */
 export interface PartSave {
@@ -72,6 +76,10 @@ export class PartsTable {
   /** Whether a save is on its way (the row's controls wait). */
   readonly saving = input(false);
   readonly save = output<PartSave>();
+  /** A part added by hand (the page sends it with the kit type's version). */
+  readonly add = output<NewPart>();
+  /** A part to remove (the page asks first). */
+  readonly remove = output<Part>();
   /** The kit type whose parts these are (for the photo addresses). */
   readonly kitTypeId = input('');
   /** A part's photo was uploaded or removed (photos do not change the kit type's version). */
@@ -83,6 +91,9 @@ export class PartsTable {
   protected readonly categories = PART_CATEGORIES;
   protected readonly filter = signal('');
   protected readonly editingId = signal<string | null>(null);
+  protected readonly newId = NEW_PART_ID;
+  /** The row being added, shown first while its fields are filled in. */
+  private readonly draft = signal<Part | null>(null);
   protected readonly columns = computed(() => [
     'photo',
     'code',
@@ -130,10 +141,12 @@ export class PartsTable {
       this.dataSource.paginator = this.paginator();
     });
     effect(() => {
-      this.dataSource.data = [...this.parts()];
+      const draft = this.draft();
+      this.dataSource.data = draft ? [draft, ...this.parts()] : [...this.parts()];
       // A new list (after a save or reload) ends the edit of a row it no longer matches.
-      const id = this.editingId();
-      if (id && !this.parts().some((p) => p.id === id)) this.editingId.set(null);
+      const id = untracked(() => this.editingId());
+      if (id && id !== NEW_PART_ID && !this.parts().some((p) => p.id === id))
+        this.editingId.set(null);
     });
     effect(() => (this.dataSource.filter = this.filter().trim().toLowerCase()));
   }
@@ -152,8 +165,34 @@ export class PartsTable {
     this.editingId.set(part.id);
   }
 
+  /**
+   * Opens an empty row at the top of the list for a new part (or the row the person filled in,
+   * `values`, again after the server refused it, e.g. a code already taken).
+   */
+  startAdding(values?: NewPart): void {
+    const part: Part = {
+      id: NEW_PART_ID,
+      code: '',
+      name: '',
+      colour: null,
+      category: 'other',
+      qty: 1,
+      compartment: null,
+      small: false,
+      chargeMinutes: null,
+      ...values,
+      hasPhoto: false,
+    };
+    // The filter and the page would hide the new row: show it first, on the first page.
+    this.filter.set('');
+    this.paginator().firstPage();
+    this.draft.set(part);
+    this.edit(part);
+  }
+
   protected cancel(): void {
     this.editingId.set(null);
+    this.draft.set(null);
   }
 
   /** Ends the edit; the page saves and gives a fresh list. */
@@ -163,7 +202,7 @@ export class PartsTable {
       return;
     }
     const v = this.form.getRawValue();
-    const next: PartChange = {
+    const next: NewPart = {
       code: v.code.trim(),
       name: v.name.trim(),
       colour: v.colour.trim() || null,
@@ -176,6 +215,11 @@ export class PartsTable {
           ? null
           : Number(v.chargeMinutes),
     };
+    if (part.id === NEW_PART_ID) {
+      this.cancel();
+      this.add.emit(next);
+      return;
+    }
     // Only what changed is sent, so a colleague's edit of another field is not overwritten.
     const change: PartChange = {};
     for (const key of Object.keys(next) as (keyof PartChange)[]) {
