@@ -129,7 +129,7 @@ describe('review through the screens', () => {
     const cell = leadPage.getByRole('button', { name: /^KRDT-6\.2, Year 6 term 3/ });
     await cell.waitFor();
     await cell.click();
-    const picked = leadPage.getByRole('region', { name: /KRDT-6\.2 · Year 6 term 3/ });
+    const picked = leadPage.getByRole('region', { name: /KRDT-6\.2 in Year 6, Term 3/ });
     await picked.getByRole('link', { name: title }).waitFor();
     await leadPage.waitForLoadState('networkidle');
     assert.deepEqual(await axeFindings(leadPage), [], 'coverage matrix');

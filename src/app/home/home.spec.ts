@@ -196,7 +196,7 @@ describe('Home for a curriculum lead', () => {
     expect(card.textContent).toContain('1 unit waits for your review');
     expect(card.querySelector('a')!.getAttribute('href')).toBe('/review/units/unit-gates');
     expect(card.textContent!.replace(/\s+/g, ' ')).toContain(
-      '4 of 10 outcomes of Digital Technologies have no unit in term 3 2026',
+      '4 of 10 outcomes of Digital Technologies have no unit in Term 3, 2026',
     );
     // The card comes before the week, so a lead sees it first.
     const week = el.querySelector('.week-nav')!;

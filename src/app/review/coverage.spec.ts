@@ -92,5 +92,11 @@ describe('CoveragePage', () => {
     const link = el.querySelector<HTMLAnchorElement>('.picked a');
     expect(link?.textContent).toBe('Rescue Rovers');
     expect(link?.getAttribute('href')).toBe('/units/u-1');
+    // The list sits above the matrix: the clicked cell stays marked and focus moves to the list.
+    await fixture.whenStable();
+    expect(button!.getAttribute('aria-pressed')).toBe('true');
+    const heading = el.querySelector('#picked-heading')!;
+    expect(heading.textContent).toContain('KRDT-4.1 in Year 4, Term 3');
+    expect(document.activeElement).toBe(heading);
   });
 });

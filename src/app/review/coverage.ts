@@ -1,4 +1,13 @@
-import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  ElementRef,
+  Injector,
+  afterNextRender,
+  computed,
+  inject,
+  signal,
+} from '@angular/core';
 import { takeUntilDestroyed, toObservable } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
@@ -50,6 +59,8 @@ type Row = { kind: 'strand'; strand: string } | { kind: 'outcome'; outcome: Cove
 export class CoveragePage {
   private readonly api = inject(ReviewApi);
   private readonly user = inject(Session).user;
+  private readonly injector = inject(Injector);
+  private readonly host = inject<ElementRef<HTMLElement>>(ElementRef);
 
   protected readonly yearLevels = YEAR_LEVELS;
   protected readonly statusLabels = UNIT_STATUS_LABELS;
@@ -133,6 +144,22 @@ export class CoveragePage {
   protected pick(outcome: CoverageOutcome, i: number): void {
     const cell = outcome.cells[i]!;
     this.picked.set({ outcome, yearLevel: cell.yearLevel, term: cell.term, units: cell.units });
+    // The list is above the matrix, out of sight from a cell far down: bring it into view and
+    // move focus to it, so the click is seen to do something (and a screen reader reads it).
+    afterNextRender(
+      () => {
+        const heading = this.host.nativeElement.querySelector<HTMLElement>('#picked-heading');
+        heading?.scrollIntoView({ block: 'nearest' });
+        heading?.focus({ preventScroll: true });
+      },
+      { injector: this.injector },
+    );
+  }
+
+  protected isPicked(outcome: CoverageOutcome, i: number): boolean {
+    const p = this.picked();
+    const cell = outcome.cells[i]!;
+    return p?.outcome.id === outcome.id && p.yearLevel === cell.yearLevel && p.term === cell.term;
   }
 
   protected cellLabel(outcome: CoverageOutcome, i: number): string {

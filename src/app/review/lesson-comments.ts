@@ -31,7 +31,7 @@ import { ReviewApi } from './review-api';
         } @else {
           <p class="muted">Loading comments…</p>
         }
-        <mat-form-field class="wide">
+        <mat-form-field class="wide" subscriptSizing="dynamic">
           <mat-label>Comment on this lesson</mat-label>
           <textarea matInput rows="3" [formControl]="text"></textarea>
           <mat-hint
@@ -54,6 +54,7 @@ import { ReviewApi } from './review-api';
   styles: `
     .wide {
       width: 100%;
+      margin-bottom: 0.5rem;
     }
   `,
   changeDetection: ChangeDetectionStrategy.OnPush,

@@ -114,6 +114,8 @@ describe('ReviewPanel', () => {
     fixture.detectChanges();
     backend.expectNone('/api/units/u-1/review');
     expect(el.textContent).toContain('Say what should change');
+    // What the buttons do with the box's text is said beside them.
+    expect(el.textContent).toContain('Request changes needs a comment saying what to change');
   });
 
   it('shows a 409 and takes the unit as it now is', async () => {

@@ -42,7 +42,7 @@ import { STEP_BUTTONS, STEP_NOTES } from './review-labels';
   ],
   template: `
     <section class="review" aria-labelledby="review-heading">
-      <h2 id="review-heading">Review</h2>
+      <h2 id="review-heading" tabindex="-1">Review</h2>
       <p>
         Status: <strong class="status">{{ statusLabels[unit().status] }}</strong>
       </p>
@@ -65,9 +65,9 @@ import { STEP_BUTTONS, STEP_NOTES } from './review-labels';
         }
       </mat-form-field>
       @if (lessons().length) {
-        <mat-form-field>
+        <mat-form-field class="about" floatLabel="always">
           <mat-label>About</mat-label>
-          <mat-select [formControl]="about">
+          <mat-select placeholder="The whole unit" [formControl]="about">
             <mat-option [value]="null">The whole unit</mat-option>
             @for (l of lessons(); track l.id) {
               <mat-option [value]="l.id">{{ l.title }}</mat-option>
@@ -93,6 +93,9 @@ import { STEP_BUTTONS, STEP_NOTES } from './review-labels';
           </button>
         }
       </div>
+      @if (stepHint(); as hint) {
+        <p class="muted hint">{{ hint }}</p>
+      }
     </section>
   `,
   styles: `
@@ -103,6 +106,12 @@ import { STEP_BUTTONS, STEP_NOTES } from './review-labels';
       display: flex;
       flex-wrap: wrap;
       gap: 0.5rem;
+    }
+    .hint {
+      font-size: 0.9rem;
+    }
+    .about {
+      margin-top: 0.5rem;
     }
   `,
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -125,6 +134,17 @@ export class ReviewPanel {
   protected readonly error = signal<string | null>(null);
   protected readonly textError = signal<string | null>(null);
   protected readonly lessons = computed(() => this.unit().lessons);
+  /** What the buttons do with the text in the box (a step carries it as its comment). */
+  protected readonly stepHint = computed(() => {
+    const actions = this.actions();
+    if (actions.includes('request-changes'))
+      return 'Request changes needs a comment saying what to change; a comment written before Endorse goes with it. Add comment only comments, without deciding.';
+    if (actions.includes('submit'))
+      return 'A message written here goes to the reviewers with Send for review.';
+    if (actions.includes('reopen'))
+      return 'Reopen returns the unit to draft, so it can be changed and sent for review again.';
+    return null;
+  });
   protected readonly comments = this.all.asReadonly();
 
   protected readonly text = new FormControl('', { nonNullable: true });

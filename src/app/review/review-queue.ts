@@ -43,18 +43,22 @@ import { ReviewApi, type QueueFilters } from './review-api';
             <mat-option value="changes-requested">The teacher (changes requested)</mat-option>
           </mat-select>
         </mat-form-field>
-        <mat-form-field subscriptSizing="dynamic">
+        <mat-form-field subscriptSizing="dynamic" floatLabel="always">
           <mat-label>Year level</mat-label>
-          <mat-select [value]="yearLevel()" (selectionChange)="yearLevel.set($event.value)">
+          <mat-select
+            placeholder="Any"
+            [value]="yearLevel()"
+            (selectionChange)="yearLevel.set($event.value)"
+          >
             <mat-option [value]="null">Any</mat-option>
             @for (level of yearLevels; track level) {
               <mat-option [value]="level">{{ year(level) }}</mat-option>
             }
           </mat-select>
         </mat-form-field>
-        <mat-form-field subscriptSizing="dynamic">
+        <mat-form-field subscriptSizing="dynamic" floatLabel="always">
           <mat-label>Term</mat-label>
-          <mat-select [value]="term()" (selectionChange)="term.set($event.value)">
+          <mat-select placeholder="Any" [value]="term()" (selectionChange)="term.set($event.value)">
             <mat-option [value]="null">Any</mat-option>
             @for (t of terms; track t) {
               <mat-option [value]="t">Term {{ t }}</mat-option>
@@ -75,6 +79,12 @@ import { ReviewApi, type QueueFilters } from './review-api';
             <th mat-header-cell *matHeaderCellDef>Unit</th>
             <td mat-cell *matCellDef="let row">
               <a [routerLink]="['/review/units', row.id]">{{ row.title }}</a>
+              <!-- On a phone the columns below fold into this line. -->
+              <span class="row-meta">
+                {{ year(row.yearLevel) }} · {{ row.term ? 'Term ' + row.term : 'no term' }} ·
+                {{ row.owner.name }} · {{ row.lessonCount }}
+                {{ row.lessonCount === 1 ? 'lesson' : 'lessons' }}
+              </span>
             </td>
           </ng-container>
           <ng-container matColumnDef="yearLevel">
@@ -136,6 +146,25 @@ import { ReviewApi, type QueueFilters } from './review-api';
     table {
       width: 100%;
       min-width: 40rem;
+    }
+    .row-meta {
+      display: none;
+    }
+    @media (max-width: 600px) {
+      table {
+        min-width: 0;
+      }
+      .mat-column-yearLevel,
+      .mat-column-term,
+      .mat-column-owner,
+      .mat-column-lessons {
+        display: none;
+      }
+      .row-meta {
+        display: block;
+        font-size: 0.85rem;
+        color: var(--mat-sys-on-surface-variant);
+      }
     }
   `,
   changeDetection: ChangeDetectionStrategy.OnPush,

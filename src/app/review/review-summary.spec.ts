@@ -64,7 +64,7 @@ describe('ReviewSummaryCard', () => {
     expect(rows[0]).toContain('Year 6 · Jordan Pell · waiting 3 days');
     expect(rows[1]).toContain('Foundation · Jordan Pell · waiting 1 day');
     expect(text(el)).toContain(
-      '1 of 12 outcomes of Digital Technologies has no unit in term 3 2026',
+      '1 of 12 outcomes of Digital Technologies has no unit in Term 3, 2026',
     );
     backend.verify();
   });

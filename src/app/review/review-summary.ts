@@ -43,7 +43,7 @@ import { ReviewApi } from './review-api';
           <p>
             <strong>{{ f.gaps }}</strong> of {{ f.outcomes }} outcomes of {{ f.name }}
             {{ f.gaps === 1 ? 'has' : 'have' }} no unit in
-            {{ s.term ? 'term ' + s.term.number + ' ' + s.term.year : 'any term' }}.
+            {{ s.term ? 'Term ' + s.term.number + ', ' + s.term.year : 'any term' }}.
           </p>
         }
         <div class="actions">

@@ -1,4 +1,13 @@
-import { ChangeDetectionStrategy, Component, effect, inject, input, signal } from '@angular/core';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  ElementRef,
+  effect,
+  inject,
+  input,
+  signal,
+} from '@angular/core';
+import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { RouterLink } from '@angular/router';
@@ -16,7 +25,14 @@ import { ReviewPanel } from './review-panel';
  */
 @Component({
   selector: 'app-review-unit',
-  imports: [RouterLink, MarkdownComponent, MatIconModule, MatProgressBarModule, ReviewPanel],
+  imports: [
+    RouterLink,
+    MarkdownComponent,
+    MatButtonModule,
+    MatIconModule,
+    MatProgressBarModule,
+    ReviewPanel,
+  ],
   template: `
     <section class="page">
       <p><a routerLink="/review">Review queue</a></p>
@@ -38,6 +54,10 @@ import { ReviewPanel } from './review-panel';
           }
           · {{ statusLabels[d.unit.status] }} · by {{ d.unit.owner.name || d.unit.owner.email }}
         </p>
+        <!-- On a narrow screen the decision comes after the whole unit: a way straight there. -->
+        <button matButton type="button" class="jump" (click)="toDecision()">
+          Go to comments and {{ d.actions.length ? 'the decision' : 'the status' }}
+        </button>
         <div class="columns">
           <div class="main">
             <h2>Overview</h2>
@@ -116,11 +136,20 @@ import { ReviewPanel } from './review-panel';
     mat-icon {
       vertical-align: middle;
     }
+    .jump {
+      display: none;
+    }
+    @media (max-width: 900px) {
+      .jump {
+        display: inline-flex;
+      }
+    }
   `,
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 export class ReviewUnitPage {
   private readonly api = inject(ReviewApi);
+  private readonly host = inject<ElementRef<HTMLElement>>(ElementRef);
 
   /** Route parameter `:id`. */
   readonly id = input.required<string>();
@@ -144,6 +173,12 @@ export class ReviewUnitPage {
   /** After a step the buttons change with the status: read the unit again. */
   protected reload(): void {
     this.load(this.id());
+  }
+
+  protected toDecision(): void {
+    const heading = this.host.nativeElement.querySelector<HTMLElement>('#review-heading');
+    heading?.scrollIntoView({ block: 'start' });
+    heading?.focus({ preventScroll: true });
   }
 
   protected year(level: number): string {
