@@ -23,7 +23,7 @@ async function open(page: Page, path: string): Promise<void> {
 const PAGES: [string, string[]][] = [
   ['teacher@kestrel-ridge.example', ['/', '/units', '/kits', '/classes']],
   ['admin@kestrel-ridge.example', ['/members', '/school', '/outcomes', '/dev/mail', '/account']],
-  ['lead@kestrel-ridge.example', ['/units', '/review', '/coverage']],
+  ['lead@kestrel-ridge.example', ['/', '/units', '/review', '/coverage']],
   ['relief@kestrel-ridge.example', ['/relief']],
 ];
 
