@@ -42,8 +42,8 @@ describe('LessonView', () => {
     // The lesson's comments (read with its unit's, none on it yet).
     await settleReads();
     backend.expectOne('/api/units/unit-rovers/comments').flush({ comments: [] });
-    await fixture.whenStable();
-    // An author sees the lesson's share links.
+    // An author sees the lesson's share links (a resource read, started once the lesson shows).
+    await settleReads();
     backend.expectOne('/api/lessons/lesson-2/share-links').flush({
       links: [
         {
@@ -67,7 +67,7 @@ describe('LessonView', () => {
     const req = backend.expectOne('/api/share-links/link-1');
     expect(req.request.method).toBe('DELETE');
     req.flush(null, { status: 204, statusText: 'No Content' });
-    await fixture.whenStable();
+    await settleReads();
     backend.expectOne('/api/lessons/lesson-2/share-links').flush({ links: [] });
     await fixture.whenStable();
     expect(text()).not.toContain('cover@relief.example');

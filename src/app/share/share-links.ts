@@ -1,17 +1,11 @@
-import {
-  ChangeDetectionStrategy,
-  Component,
-  inject,
-  input,
-  signal,
-  type OnInit,
-} from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
 import { FormControl, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { Notifier } from '../errors/notifier';
+import { apiResource } from '../http/resource';
 import type { ShareLink } from '../../../shared/schemas/sharing';
 import { savedLabel } from '../offline/saved-copy';
 import { ShareLinksApi } from './share-links-api';
@@ -97,30 +91,24 @@ import { ShareLinksApi } from './share-links-api';
   `,
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
-export class ShareLinks implements OnInit {
+export class ShareLinks {
   private readonly api = inject(ShareLinksApi);
   private readonly notifier = inject(Notifier);
 
   readonly lessonId = input.required<string>();
 
-  protected readonly links = signal<ShareLink[]>([]);
+  /** The lesson's links, read again after one is made or withdrawn. */
+  private readonly read = apiResource({
+    params: () => this.lessonId(),
+    load: (lessonId: string) => this.api.list(lessonId),
+  });
+  protected readonly links = computed<readonly ShareLink[]>(() => this.read.value()?.links ?? []);
   protected readonly made = signal<string | null>(null);
   protected readonly busy = signal(false);
   protected readonly email = new FormControl('', {
     nonNullable: true,
     validators: [Validators.email],
   });
-
-  ngOnInit(): void {
-    this.load();
-  }
-
-  private load(): void {
-    this.api.list(this.lessonId()).subscribe({
-      next: (body) => this.links.set(body.links),
-      error: (e: unknown) => this.notifier.errorNotShownYet(e),
-    });
-  }
 
   protected make(): void {
     if (this.email.invalid || this.busy()) return;
@@ -132,7 +120,7 @@ export class ShareLinks implements OnInit {
         this.made.set(link.url);
         this.email.reset();
         this.notifier.info(email ? `Link e-mailed to ${email}.` : 'Link made.');
-        this.load();
+        this.read.reload();
       },
       error: (e: unknown) => {
         this.busy.set(false);
@@ -147,7 +135,7 @@ export class ShareLinks implements OnInit {
       next: () => {
         this.busy.set(false);
         this.notifier.info('Link withdrawn: it no longer opens the lesson.');
-        this.load();
+        this.read.reload();
       },
       error: (e: unknown) => {
         this.busy.set(false);

@@ -1,12 +1,4 @@
-import {
-  ChangeDetectionStrategy,
-  Component,
-  computed,
-  inject,
-  input,
-  signal,
-  type OnInit,
-} from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, input } from '@angular/core';
 import { MarkdownComponent } from 'ngx-markdown';
 import { MatButtonModule } from '@angular/material/button';
 import { MatCardModule } from '@angular/material/card';
@@ -15,11 +7,13 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import type { Part } from '../../../shared/schemas/kits';
 import type { SharedLesson } from '../../../shared/schemas/sharing';
 import { ACTIVITY_KIND_LABELS } from '../../../shared/schemas/lessons';
+import { catchError, map, of, type Observable } from 'rxjs';
 import { AppError } from '../errors/app-error';
+import { apiResource } from '../http/resource';
 import { clockTime, dayLabel } from '../lessons/clock';
 import { PullList } from '../lessons/pull-list';
 import { Timeline } from '../lessons/timeline';
-import { savedLabel } from '../offline/saved-copy';
+import { savedLabel, type MaybeSaved } from '../offline/saved-copy';
 import { ShareApi } from './share-api';
 
 /**
@@ -42,15 +36,26 @@ import { ShareApi } from './share-api';
   styleUrl: './shared-pack.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
-export class SharedPack implements OnInit {
+export class SharedPack {
   private readonly api = inject(ShareApi);
 
   /** The link's token, from the route (`/pack/:token`). */
   readonly token = input.required<string>();
 
-  protected readonly shared = signal<SharedLesson | null>(null);
-  protected readonly savedAt = signal<string | null>(null);
-  protected readonly problem = signal<{ title: string; message: string } | null>(null);
+  /** The lesson (live or this browser's saved copy), or why the link does not open. */
+  private readonly read = apiResource({
+    params: () => this.token(),
+    load: (token: string) => shown(this.api.lesson(token)),
+  });
+  protected readonly shared = computed(() => {
+    const shown = this.read.value();
+    return shown && shown.problem === null ? shown.value : null;
+  });
+  protected readonly savedAt = computed(() => {
+    const shown = this.read.value();
+    return shown && shown.problem === null ? shown.savedAt : null;
+  });
+  protected readonly problem = computed(() => this.read.value()?.problem ?? null);
   protected readonly kindLabels = ACTIVITY_KIND_LABELS;
 
   /** The parts the pull lists name, in the shape the pull-list table reads. */
@@ -72,16 +77,6 @@ export class SharedPack implements OnInit {
     }
     return map as ReadonlyMap<string, Part>;
   });
-
-  ngOnInit(): void {
-    this.api.lesson(this.token()).subscribe({
-      next: ({ value, savedAt }) => {
-        this.shared.set(value);
-        this.savedAt.set(savedAt);
-      },
-      error: (error: unknown) => this.problem.set(describe(error)),
-    });
-  }
 
   protected when(lesson: SharedLesson['lesson']): string {
     return `${dayLabel(lesson.startsAt)}, ${clockTime(lesson.startsAt)}–${clockTime(lesson.endsAt)}`;
@@ -106,8 +101,24 @@ export class SharedPack implements OnInit {
   }
 }
 
+interface Problem {
+  title: string;
+  message: string;
+}
+
+/** What the page shows: the lesson, or why there is none. */
+type Shown = (MaybeSaved<SharedLesson> & { problem: null }) | { problem: Problem };
+
+/** A link that does not open is an answer this page words itself, not a failed load. */
+function shown(lesson: Observable<MaybeSaved<SharedLesson>>): Observable<Shown> {
+  return lesson.pipe(
+    map((saved): Shown => ({ ...saved, problem: null })),
+    catchError((error: unknown) => of<Shown>({ problem: describe(error) })),
+  );
+}
+
 /** What to tell a relief teacher whose link does not open. */
-function describe(error: unknown): { title: string; message: string } {
+function describe(error: unknown): Problem {
   const e = error instanceof AppError ? error : null;
   if (e?.status === 410) return { title: 'This link no longer works', message: e.message };
   if (e?.status === 404) return { title: 'This link is not known', message: e.message };
