@@ -63,7 +63,8 @@ async function setUp() {
   const fixture = TestBed.createComponent(TrayPage);
   fixture.componentRef.setInput('token', TOKEN);
   const http = TestBed.inject(HttpTestingController);
-  await fixture.whenStable();
+  // The tray is a resource read: it goes out with the first check and holds stability until answered.
+  fixture.detectChanges();
   http.expectOne(URL).flush(view());
   await fixture.whenStable();
   const loader = TestbedHarnessEnvironment.loader(fixture);

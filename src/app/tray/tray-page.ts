@@ -3,17 +3,18 @@ import {
   Component,
   DestroyRef,
   computed,
-  effect,
   inject,
   input,
+  linkedSignal,
   signal,
-  untracked,
 } from '@angular/core';
 import { RouterLink } from '@angular/router';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
+import { map, tap } from 'rxjs';
 import type { TrayLine, TrayLineUpdate, TrayView } from '../../../shared/schemas/trays';
 import { AppError } from '../errors/app-error';
+import { apiResource } from '../http/resource';
 import { clockTime, dayLabel } from '../lessons/clock';
 import { CAUTIONS_DEFER, SAFETY_CAUTIONS } from '../lessons/cautions';
 import { TrayApi } from './tray-api';
@@ -40,12 +41,30 @@ export class TrayPage {
   /** The token from the address (`/tray/:token`). */
   readonly token = input.required<string>();
 
-  protected readonly view = signal<TrayView | null>(null);
-  protected readonly problem = signal<string | null>(null);
+  /** This token's taps not yet saved on the server, kept in the browser across reloads. */
+  private readonly queue = computed(() => new TapQueue(`trayplan.tray.${this.token()}`));
+  /** The group's tray as read, then as tapped here (each tap shows at once). */
+  private readonly read = apiResource({
+    params: () => this.token(),
+    load: (token: string) =>
+      this.api.tray(token).pipe(
+        // Taps that were not saved yet still show as tapped.
+        map((view) =>
+          this.queue()
+            .all()
+            .reduce((shown, t) => applyTap(shown, t.partCode, t.change), view),
+        ),
+        // The page works: send what is waiting.
+        tap(() => this.flush()),
+      ),
+  });
+  protected readonly view = computed(() => this.read.value() ?? null);
+  /** A tap the server refused for good (the read's own failure otherwise). */
+  private readonly refused = signal<string | null>(null);
+  protected readonly problem = computed(() => this.refused() ?? this.read.error());
   /** Taps not yet saved on the server. */
-  protected readonly waiting = signal(0);
+  protected readonly waiting = linkedSignal(() => this.queue().length);
   protected readonly offline = signal(false);
-  private queue: TapQueue | null = null;
   private sending = false;
   private retry: ReturnType<typeof setTimeout> | null = null;
 
@@ -82,25 +101,6 @@ export class TrayPage {
       globalThis.removeEventListener?.('online', online);
       if (this.retry) clearTimeout(this.retry);
     });
-    effect(() => {
-      const token = this.token();
-      untracked(() => this.open(token));
-    });
-  }
-
-  private open(token: string): void {
-    this.queue = new TapQueue(`trayplan.tray.${token}`);
-    this.waiting.set(this.queue.length);
-    this.api.tray(token).subscribe({
-      next: (view) => {
-        // Taps that were not saved yet still show as tapped.
-        let shown = view;
-        for (const tap of this.queue!.all()) shown = applyTap(shown, tap.partCode, tap.change);
-        this.view.set(shown);
-        this.flush();
-      },
-      error: (err: AppError) => this.problem.set(err.message),
-    });
   }
 
   protected when(view: TrayView): string {
@@ -125,20 +125,21 @@ export class TrayPage {
 
   private tap(line: TrayLine, change: TrayLineUpdate): void {
     const view = this.view();
-    if (!view || !this.queue) return;
-    this.view.set(applyTap(view, line.partCode, change));
-    this.queue.push({ partCode: line.partCode, change });
-    this.waiting.set(this.queue.length);
+    if (!view) return;
+    this.read.set(applyTap(view, line.partCode, change));
+    const queue = this.queue();
+    queue.push({ partCode: line.partCode, change });
+    this.waiting.set(queue.length);
     this.flush();
   }
 
   /** Sends the waiting taps one at a time, oldest first. */
   private flush(): void {
-    const queue = this.queue;
-    const tap = queue?.peek();
-    if (!queue || !tap || this.sending) return;
+    const queue = this.queue();
+    const oldest = queue.peek();
+    if (!oldest || this.sending) return;
     this.sending = true;
-    this.api.saveLine(this.token(), tap.partCode, tap.change).subscribe({
+    this.api.saveLine(this.token(), oldest.partCode, oldest.change).subscribe({
       next: () => {
         this.sending = false;
         queue.shift();
@@ -158,7 +159,7 @@ export class TrayPage {
         // Refused for good (the code was replaced, the lesson's day is over, the plan changed).
         queue.shift();
         this.waiting.set(queue.length);
-        this.problem.set(err.message);
+        this.refused.set(err.message);
         this.flush();
       },
     });
