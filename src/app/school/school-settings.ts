@@ -4,8 +4,10 @@ import {
   DestroyRef,
   ElementRef,
   computed,
+  effect,
   inject,
   signal,
+  untracked,
 } from '@angular/core';
 import { takeUntilDestroyed, toSignal } from '@angular/core/rxjs-interop';
 import { ReactiveFormsModule } from '@angular/forms';
@@ -27,6 +29,7 @@ import { AppError, UNKNOWN_MESSAGE } from '../errors/app-error';
 import { staleConflict } from '../errors/conflict';
 import { Notifier } from '../errors/notifier';
 import { FieldErrorPipe } from '../forms/field-error';
+import { apiResource } from '../http/resource';
 import { SchemaIssues, revalidate } from './schema-issues';
 import { SchoolApi } from './school-api';
 import {
@@ -88,8 +91,10 @@ export class SchoolSettingsPage implements HasUnsavedChanges {
   protected readonly defaults = DEFAULT_PREP;
   protected readonly paperSizes = PAPER_SIZES;
 
-  protected readonly loading = signal(true);
-  protected readonly loadFailed = signal<string | null>(null);
+  /** The settings as saved; each answer (the first, or Try again) fills the form. */
+  private readonly read = apiResource({ load: () => this.api.get() });
+  protected readonly loading = this.read.loading;
+  protected readonly loadFailed = this.read.error;
   protected readonly saving = signal(false);
   protected readonly message = signal<string | null>(null);
   protected readonly stale = signal<StaleSave | null>(null);
@@ -100,7 +105,11 @@ export class SchoolSettingsPage implements HasUnsavedChanges {
   /** The saved settings the form started from, as a body, to tell what changed. */
   private baseline: SettingsBody | null = null;
 
-  private readonly zones = signal<readonly string[]>(timeZoneNames());
+  /** The server's zone names; the browser's own until they arrive (or if they do not). */
+  private readonly zonesRead = apiResource({ load: () => this.api.timezones() });
+  private readonly zones = computed<readonly string[]>(
+    () => this.zonesRead.value() ?? timeZoneNames(),
+  );
   private readonly zoneText = toSignal(this.form.controls.timezone.valueChanges, {
     initialValue: '',
   });
@@ -127,8 +136,10 @@ export class SchoolSettingsPage implements HasUnsavedChanges {
       revalidate(this.form);
       this.dirty.set(this.hasUnsavedChanges());
     });
-    this.api.timezones().subscribe({ next: (z) => this.zones.set(z), error: () => undefined });
-    this.load();
+    effect(() => {
+      const saved = this.read.value();
+      if (saved) untracked(() => this.apply(saved));
+    });
   }
 
   /** Whether the form differs from what was loaded or last saved. */
@@ -142,18 +153,7 @@ export class SchoolSettingsPage implements HasUnsavedChanges {
   }
 
   protected load(): void {
-    this.loading.set(true);
-    this.loadFailed.set(null);
-    this.api.get().subscribe({
-      next: (s) => {
-        this.apply(s);
-        this.loading.set(false);
-      },
-      error: (e: unknown) => {
-        this.loading.set(false);
-        this.loadFailed.set(e instanceof AppError ? e.message : UNKNOWN_MESSAGE);
-      },
-    });
+    this.read.reload();
   }
 
   protected save(): void {
