@@ -108,7 +108,7 @@ export function partsTable(
       th('Code'),
       th('Part'),
       th('Colour'),
-      th('Tray'),
+      th('Compartment'),
       th('Qty', { alignment: 'right' }),
       th('From'),
       th('Back'),

@@ -1,5 +1,10 @@
 /** What every section builder of a lesson pack reads: the lesson, its plan, lookups, the page. */
-import type { PrepGroup, PrepLine, PrepPlan } from '../../shared/prep/index.js';
+import {
+  groupController as sharedGroupController,
+  type PrepGroup,
+  type PrepLine,
+  type PrepPlan,
+} from '../../shared/prep/index.js';
 import type { LessonPackModel, PackPart, PrintContext } from './model.js';
 import { contentWidth } from './layout.js';
 import { clockTime, localClockTime, shortDate } from './format.js';
@@ -67,18 +72,15 @@ export function sourceLines(line: PrepLine, homeTub: string | null): string[] {
   );
 }
 
-/**
- * The controller a group pairs with, as printed: the label of the tub its controller comes from
- * (the home tub's, or the lending tub's when borrowed), `none (short)` when the group gets no
- * controller, `not labelled` when the tub has no controller label recorded.
- */
+/** The controller a group pairs with, as printed (shared/prep/controller.ts says how). */
 export function groupController(view: PackView, group: PrepGroup): string {
-  const line = group.lines.find((l) => view.part(l.partCode).category === 'controller');
-  if (!line) return group.controllerLabel ?? 'not labelled';
-  const from = line.sources[0]?.tub;
-  if (!from) return 'none (short)';
-  if (from === group.homeTub) return group.controllerLabel ?? 'not labelled';
-  return `${view.controllers.get(from) ?? 'not labelled'} (from ${from})`;
+  return (
+    sharedGroupController(
+      group,
+      (code) => view.part(code).category,
+      (tub) => view.controllers.get(tub),
+    ) ?? 'not labelled'
+  );
 }
 
 /** Pieces each tub gave out (groups, class tray, spares tray): what must come back to it. */

@@ -6,7 +6,7 @@ import { requireActor } from '../auth/session.js';
 import { readableLesson } from '../planning/access.js';
 import { runnableLesson } from '../trays/access.js';
 import { idParamsSchema } from '../../shared/schemas/common.js';
-import type { LessonPrep } from '../../shared/prep/index.js';
+import { groupControllers, type LessonPrep } from '../../shared/prep/index.js';
 import { prepTickUpdateSchema, type PrepTicks } from '../../shared/schemas/prep-ticks.js';
 import { notPlannable, planLesson } from '../prep/plan-lesson.js';
 import { readTicks, setTick } from '../prep/ticks.js';
@@ -50,13 +50,13 @@ export function prepRouter(ctx: AppContext): Router {
       }
     }
     const answer: LessonPrep = await snapshot(async (tx) => {
-      const { plan, partNames, parts } = await plannedLesson(tx, id);
+      const { plan, partNames, parts, input } = await plannedLesson(tx, id);
       const ticks = await readTicks(
         tx,
         id,
         plan.tasks.map((t) => t.key),
       );
-      return { ...plan, partNames, parts, ticks };
+      return { ...plan, partNames, parts, controllers: groupControllers(plan, input), ticks };
     });
     res.json(answer);
   });

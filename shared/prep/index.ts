@@ -40,3 +40,4 @@ export {
   offsetMinutes,
   type TimeSpan,
 } from './time.js';
+export { groupController, groupControllers } from './controller.js';

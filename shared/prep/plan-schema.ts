@@ -166,6 +166,11 @@ export type LessonPart = z.infer<typeof lessonPartSchema>;
 export const lessonPrepSchema = prepPlanSchema.extend({
   partNames: z.record(z.string(), z.string()),
   parts: z.record(z.string(), lessonPartSchema),
+  /**
+   * Each group's controller in words (by group number; shared/prep/controller.ts), null when
+   * there is none to name: the page never claims a controller the plan does not give.
+   */
+  controllers: z.record(z.string(), z.string().nullable()),
   /** The prep tasks ticked done by the lesson's teachers (by task key). */
   ticks: z.array(prepTickSchema),
 });

@@ -217,6 +217,9 @@ describe('GET /api/lessons/:id/prep', () => {
       })),
       [{ group: 3, partCode: 'RB-020', qty: 2, fromTub: 'Tub 2', homeTub: 'Tub 3' }],
     );
+    // Group 4 gets no controller (one short, above); the others take their home tub's, which
+    // has no label recorded here: nothing is claimed (null), and group 4 says it is short.
+    assert.deepEqual(plan.controllers, { 1: null, 2: null, 3: null, 4: 'none (short)' });
     assert.equal(plan.timeline.packAwayMinutes, 6);
     assert.equal(plan.timeline.slackMinutes, -1);
     assert.equal(plan.timeline.packAwayStartsAt, '2026-07-28T11:54:00+09:30');

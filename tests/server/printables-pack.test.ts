@@ -211,7 +211,7 @@ describe('GET /api/lessons/:id/pack.pdf (demo lesson 2, with a shortfall)', () =
       const page = pack.pages[2 + group.number]!;
       assert.ok(page.text.includes(`Group ${group.number} pull sheet`));
       const head = (s: string) => page.items.find((i) => i.str === s && i.font.includes('Bold'))!;
-      const [tray, qtyHead] = [head('Tray'), head('Qty')];
+      const [tray, qtyHead] = [head('Compartment'), head('Qty')];
       const codes = page.items.filter((i) => /^RB-\d{3}$/.test(i.str) && i.x < tray.x);
       assert.deepEqual(
         codes.map((c) => c.str),

@@ -112,7 +112,7 @@ describe('LessonView', () => {
     expect(text()).toContain('Tue 28 Jul 2026, 11:10 am–12:00 pm');
   });
 
-  it('renders each group with its size and home tub (PREP-RULES.md worked example)', () => {
+  it('renders each group with its size and home tub, and never claims a controller a short group lacks (PREP-RULES.md worked example)', () => {
     const headings = Array.from(
       (fixture.nativeElement as HTMLElement).querySelectorAll('.group h3'),
     ).map((h) => h.textContent!.replace(/\s+/g, ' ').trim());
@@ -121,7 +121,8 @@ describe('LessonView', () => {
       'Group 1 · 3 students · home tub Tub 1',
       'Group 2 · 3 students · home tub Tub 2',
       'Group 3 · 2 students · home tub Tub 3',
-      'Group 4 · 2 students · home tub Tub 1',
+      // Group 4 is one controller short (worked example): no controller is claimed for it.
+      'Group 4 · 2 students · home tub Tub 1 · controller none (short)',
     ]);
   });
 

@@ -15,7 +15,7 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { RouterLink } from '@angular/router';
-import type { PrepSuggestion } from '../../../shared/prep/index';
+import type { LessonPrep, PrepSuggestion } from '../../../shared/prep/index';
 import { lessonSchema, type Lesson } from '../../../shared/schemas/lessons';
 import { AppError } from '../errors/app-error';
 import { staleConflict } from '../errors/conflict';
@@ -97,6 +97,10 @@ export class LessonView {
   protected readonly parts = computed(
     (): ReadonlyMap<string, PartInfo> => new Map(Object.entries(this.plan()?.parts ?? {})),
   );
+  /** The controller a group pairs with, in the pack's words (null: nothing to name). */
+  protected controllerOf(plan: LessonPrep, group: number): string | null {
+    return plan.controllers[String(group)] ?? null;
+  }
   protected readonly loading = computed(() => this.lessonRead.loading() || this.planRead.loading());
   protected readonly loadError = computed(
     () => this.lessonRead.error() ?? this.planRead.error() ?? null,

@@ -1,5 +1,6 @@
 import {
   computePrepPlan,
+  groupControllers,
   planPartCodes,
   type LessonPrep,
   type PrepInput,
@@ -75,7 +76,10 @@ export function workedExamplePlan(overrides: Partial<PrepInput> = {}): PrepPlan 
  * A plan as `GET /api/lessons/:id/prep` answers it: with the name, colour and compartment of each
  * part it mentions, taken from `workedExampleParts` as the server takes them from the parts list.
  */
-export function workedExamplePrep(plan: PrepPlan): LessonPrep {
+export function workedExamplePrep(
+  plan: PrepPlan,
+  input: PrepInput = workedExampleInput(),
+): LessonPrep {
   const byCode = new Map(workedExampleParts().map((p) => [p.code, p]));
   const partNames: LessonPrep['partNames'] = {};
   const parts: LessonPrep['parts'] = {};
@@ -88,7 +92,7 @@ export function workedExamplePrep(plan: PrepPlan): LessonPrep {
       compartment: part?.compartment ?? null,
     };
   }
-  return { ...plan, partNames, parts, ticks: [] };
+  return { ...plan, partNames, parts, controllers: groupControllers(plan, input), ticks: [] };
 }
 
 /** The parts list of the worked example's kit type (colours and compartments invented). */
