@@ -118,6 +118,25 @@ describe('Home', () => {
     expect(el.querySelector('.attention')!.textContent).toContain('1 × RB-001 short for group 7.');
   });
 
+  // WCAG 2.2 SC 2.4.3 Focus Order: the link goes away with the empty week; focus moves to the week.
+  it('"Go to the week of…" moves focus to the week shown', async () => {
+    const current = mondayOf(today());
+    backend.expectOne(url(current)).flush({ week: current, lessons: [], tasks: [], attention: [] });
+    await fixture.whenStable();
+    const el = fixture.nativeElement as HTMLElement;
+    const link = [...el.querySelectorAll<HTMLButtonElement>('button')].find((b) =>
+      /week of 27 July 2026/.test(b.textContent ?? ''),
+    )!;
+    link.focus();
+    link.click();
+    await settleReads();
+    backend.expectOne(url('2026-07-27')).flush(WEEK);
+    await fixture.whenStable();
+    expect(link.isConnected).toBeFalse();
+    expect(document.activeElement).toBe(el.querySelector('h2.week-heading'));
+    expect(document.activeElement?.textContent).toContain('27 Jul');
+  });
+
   it('moves to the previous and next week', async () => {
     const current = mondayOf(today());
     backend.expectOne(url(current)).flush(WEEK);

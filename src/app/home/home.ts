@@ -13,6 +13,7 @@ import { RouterLink } from '@angular/router';
 import { ROLE_LABELS } from '../../../shared/schemas/common';
 import { Session } from '../auth/session';
 import { apiResource } from '../http/resource';
+import { focusAfter } from '../a11y/focus-after';
 import { clockTime, dayLabel } from '../lessons/clock';
 import { ReviewSummaryCard } from '../review/review-summary';
 import { AgendaApi, DEMO_WEEK, addDays, mondayOf, today, type Agenda } from './agenda-api';
@@ -27,6 +28,7 @@ import { AgendaApi, DEMO_WEEK, addDays, mondayOf, today, type Agenda } from './a
 })
 export class Home {
   private readonly api = inject(AgendaApi);
+  private readonly focus = focusAfter();
   protected readonly user = inject(Session).user;
   protected readonly roleLabel = computed(() => {
     const user = this.user();
@@ -62,6 +64,8 @@ export class Home {
 
   protected goTo(week: string): void {
     this.week.set(mondayOf(week));
+    // The link goes away once the week's lessons arrive: focus moves to the week shown (SC 2.4.3).
+    this.focus('.week-heading');
   }
 
   protected weekLabel(): string {

@@ -1,6 +1,7 @@
 import type { HarnessLoader } from '@angular/cdk/testing';
 import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
 import { HttpTestingController } from '@angular/common/http/testing';
+import { LiveAnnouncer } from '@angular/cdk/a11y';
 import { TestBed, type ComponentFixture } from '@angular/core/testing';
 import { MAT_DIALOG_DATA, MatDialogRef } from '@angular/material/dialog';
 import { MatButtonHarness } from '@angular/material/button/testing';
@@ -132,6 +133,48 @@ describe('TubDialog', () => {
     ).setValue('-1');
     await (await loader.getHarness(MatButtonHarness.with({ text: 'Record audit' }))).click();
     expect(fixture.nativeElement.textContent).toContain('Use a whole number from 0 to 10000.');
+    backend.expectNone('/api/tubs/tub-5/audits');
+  });
+
+  // WCAG 2.2 SC 4.1.3 Status Messages (the result is said) and SC 2.4.3 Focus Order (the button
+  // disabled while sending had focus; it gets it back).
+  it('announces and shows a recorded audit, with focus back on Record audit', async () => {
+    await setUp(true);
+    const announce = spyOn(TestBed.inject(LiveAnnouncer), 'announce').and.resolveTo();
+    await (
+      await loader.getHarness(MatInputHarness.with({ selector: 'textarea' }))
+    ).setValue('Lost-parts box checked.');
+    const el = fixture.nativeElement as HTMLElement;
+    const button = el.querySelector<HTMLButtonElement>('.record-audit')!;
+    button.focus();
+    button.click();
+    fixture.detectChanges();
+    expect(button.disabled).toBeTrue();
+    backend.expectOne('/api/tubs/tub-5/audits').flush({}, { status: 201, statusText: 'Created' });
+    await settleReads();
+    backend.expectOne('/api/tubs/tub-5').flush({ tub: TUB });
+    backend.expectOne('/api/tubs/tub-5/audits').flush({ audits: [] });
+    await fixture.whenStable();
+    const message = 'The audit is recorded: the stock and history below are updated.';
+    expect(announce).toHaveBeenCalledWith(message);
+    expect(el.querySelector('.recorded')?.textContent).toContain(message);
+    expect(document.activeElement).toBe(el.querySelector('.record-audit'));
+  });
+
+  // SC 3.3.1 Error Identification: the invalid count may be scrolled off; focus goes to it.
+  it('moves focus to the first invalid count', async () => {
+    await setUp(true);
+    await (
+      await loader.getHarness(
+        MatInputHarness.with({ selector: '[aria-label="Turned up: Wheel (RB-WHL)"]' }),
+      )
+    ).setValue('-3');
+    const el = fixture.nativeElement as HTMLElement;
+    const button = el.querySelector<HTMLButtonElement>('.record-audit')!;
+    button.focus();
+    button.click();
+    await fixture.whenStable();
+    expect(document.activeElement?.getAttribute('aria-label')).toBe('Turned up: Wheel (RB-WHL)');
     backend.expectNone('/api/tubs/tub-5/audits');
   });
 

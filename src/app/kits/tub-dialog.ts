@@ -1,3 +1,4 @@
+import { LiveAnnouncer } from '@angular/cdk/a11y';
 import { DatePipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
 import { FormArray, FormControl, FormGroup, ReactiveFormsModule } from '@angular/forms';
@@ -19,6 +20,7 @@ import { AppError } from '../errors/app-error';
 import { FieldErrorPipe } from '../forms/field-error';
 import { zodValidator } from '../forms/validators';
 import { apiResource } from '../http/resource';
+import { focusAfter } from '../a11y/focus-after';
 import { KitsApi } from './kits-api';
 
 /** What the tub dialog needs: the tub, the kit type's parts (names and quantities). */
@@ -69,6 +71,8 @@ function countRow(code: string) {
 })
 export class TubDialog {
   private readonly api = inject(KitsApi);
+  private readonly announcer = inject(LiveAnnouncer);
+  private readonly focus = focusAfter();
   private readonly dialogRef = inject<MatDialogRef<TubDialog, boolean>>(MatDialogRef);
   protected readonly data = inject<TubDialogData>(MAT_DIALOG_DATA);
 
@@ -81,6 +85,8 @@ export class TubDialog {
   protected readonly submitting = signal(false);
   protected readonly formError = signal<string | null>(null);
   protected readonly saved = signal(false);
+  /** Shown under the form after an audit is recorded (and announced, WCAG 2.2 SC 4.1.3). */
+  protected readonly recorded = signal<string | null>(null);
   protected readonly form = new FormGroup({
     lines: new FormArray(this.data.parts.map((p) => countRow(p.code))),
     note: new FormControl('', {
@@ -116,8 +122,11 @@ export class TubDialog {
 
   protected submit(): void {
     this.formError.set(null);
+    this.recorded.set(null);
     if (this.form.invalid) {
       this.form.markAllAsTouched();
+      // The count may be scrolled off: focus goes to it, as school settings does (SC 3.3.1).
+      this.focus('.mat-form-field-invalid :is(input, textarea)');
       return;
     }
     const { lines, note } = this.form.getRawValue();
@@ -138,10 +147,16 @@ export class TubDialog {
         this.form.reset();
         this.tubRead.reload();
         this.auditsRead.reload();
+        const message = 'The audit is recorded: the stock and history below are updated.';
+        this.recorded.set(message);
+        void this.announcer.announce(message);
+        // The button was disabled while sending, which dropped focus to the page (SC 2.4.3).
+        this.focus('.record-audit');
       },
       error: (error: unknown) => {
         this.submitting.set(false);
         this.formError.set(error instanceof AppError ? error.message : String(error));
+        this.focus('.record-audit');
       },
     });
   }

@@ -33,6 +33,7 @@ import { staleConflict } from '../errors/conflict';
 import { Notifier } from '../errors/notifier';
 import { confirm } from '../forms/confirm-dialog';
 import { MatDialog } from '@angular/material/dialog';
+import { focusAfter } from '../a11y/focus-after';
 import { FieldErrorPipe } from '../forms/field-error';
 import { formErrorMessage } from '../forms/server-errors';
 import { zodValidator } from '../forms/validators';
@@ -91,13 +92,15 @@ export class ActivityEditor {
   private readonly api = inject(LessonFormApi);
   private readonly notifier = inject(Notifier);
   private readonly dialog = inject(MatDialog);
+  private readonly focus = focusAfter();
 
   readonly lessonId = input.required<string>();
   /** The activity to edit, or null to add a new one at the end of the lesson. */
   readonly activity = input<Activity | null>(null);
   readonly parts = input.required<readonly Part[]>();
   readonly saved = output<Activity>();
-  readonly closed = output<void>();
+  /** The editor is done: true when the activity was deleted, false when it was closed. */
+  readonly closed = output<boolean>();
   /** The unit's title while it is endorsed: a change is asked about first (it returns to draft). */
   readonly endorsedUnit = input<string | null>(null);
   /** After any change saved (the activity, a delete, an attachment): the unit is a draft now. */
@@ -202,9 +205,13 @@ export class ActivityEditor {
         this.notifier.info(`“${activity.title}” is saved.`);
         this.edited.emit();
         this.saved.emit(activity);
+        // Saving disabled the button, which dropped focus to the page (WCAG 2.2 SC 2.4.3). A new
+        // activity's editor moves into the list: the lesson editor focuses it there.
+        if (version !== null) this.focus('.save-activity');
       },
       error: (error: unknown) => {
         this.saving.set(false);
+        this.focus('.save-activity');
         if (!(error instanceof AppError)) return this.notifier.errorNotShownYet(error);
         const current = staleConflict(error, activitySchema)?.current;
         if (current) return this.conflict.set(current);
@@ -252,7 +259,7 @@ export class ActivityEditor {
 
   protected remove(): void {
     const activity = this.base;
-    if (!activity) return this.closed.emit();
+    if (!activity) return this.closed.emit(false);
     confirm(this.dialog, {
       title: 'Delete this activity?',
       message: `“${activity.title}” is deleted with its materials and attachments.${endorsedDeleteNote(this.endorsedUnit())}`,
@@ -270,7 +277,7 @@ export class ActivityEditor {
         this.form.markAsPristine();
         this.notifier.info(`“${activity.title}” is deleted.`);
         this.edited.emit();
-        this.closed.emit();
+        this.closed.emit(true);
       },
       error: (error: unknown) => {
         const current = staleConflict(error, activitySchema)?.current;
@@ -282,7 +289,7 @@ export class ActivityEditor {
 
   protected cancel(): void {
     this.fill(this.base, this.parts());
-    this.closed.emit();
+    this.closed.emit(false);
   }
 
   protected upload(event: Event): void {

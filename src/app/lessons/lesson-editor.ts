@@ -1,3 +1,4 @@
+import { LiveAnnouncer } from '@angular/cdk/a11y';
 import {
   CdkDrag,
   CdkDragHandle,
@@ -10,6 +11,7 @@ import {
   Component,
   computed,
   effect,
+  ElementRef,
   inject,
   input,
   linkedSignal,
@@ -44,6 +46,7 @@ import {
   type LessonUpdate,
 } from '../../../shared/schemas/lessons';
 import type { BellPeriod } from '../../../shared/schemas/school';
+import { focusAfter } from '../a11y/focus-after';
 import { AppError } from '../errors/app-error';
 import { ORDER_CONFLICTS, staleConflict } from '../errors/conflict';
 import { Notifier } from '../errors/notifier';
@@ -110,6 +113,9 @@ export class LessonEditor implements HasUnsavedChanges {
   private readonly notifier = inject(Notifier);
   private readonly dialog = inject(MatDialog);
   private readonly units = inject(UnitsApi);
+  private readonly announcer = inject(LiveAnnouncer);
+  private readonly focus = focusAfter();
+  private readonly element = inject<ElementRef<HTMLElement>>(ElementRef).nativeElement;
 
   /** Route parameter `:id` (editing), absent when creating. */
   readonly id = input<string>();
@@ -262,6 +268,7 @@ export class LessonEditor implements HasUnsavedChanges {
     if (this.form.invalid) {
       this.form.markAllAsTouched();
       this.formError.set('Check the fields marked below.');
+      this.focus(() => this.firstInvalid());
       return;
     }
     confirmEndorsedEdit(this.dialog, this.endorsedUnit(), 'this lesson').subscribe((yes) => {
@@ -308,6 +315,8 @@ export class LessonEditor implements HasUnsavedChanges {
         this.conflict.set(null);
         this.fill(saved);
         this.notifier.info(`“${saved.title}” is saved.`);
+        // The button was disabled while saving, which dropped focus to the page (SC 2.4.3).
+        this.focus('.save-lesson');
       },
       error: (error: unknown) => this.failed(error, change),
     });
@@ -315,6 +324,7 @@ export class LessonEditor implements HasUnsavedChanges {
 
   private failed(error: unknown, change: Omit<LessonUpdate, 'version'>): void {
     this.saving.set(false);
+    this.focus(() => this.firstInvalid() ?? this.host('.save-lesson'));
     if (!(error instanceof AppError)) return this.notifier.errorNotShownYet(error);
     const lesson = this.lesson();
     const current = staleConflict(error, lessonSchema)?.current;
@@ -346,10 +356,12 @@ export class LessonEditor implements HasUnsavedChanges {
     this.save(conflict.current.version, conflict.change);
   }
 
-  protected drop(event: CdkDragDrop<Activity[]>): void {
+  protected drop(event: CdkDragDrop<Activity[]>, byKeyboard = false): void {
     if (!this.lesson() || event.previousIndex === event.currentIndex) return;
     confirmEndorsedEdit(this.dialog, this.endorsedUnit(), 'the new order').subscribe((yes) => {
       if (yes) this.sendOrder(event.previousIndex, event.currentIndex);
+      if (yes && byKeyboard)
+        this.movedByKeyboard(event.currentIndex, event.currentIndex - event.previousIndex);
     });
   }
 
@@ -394,7 +406,37 @@ export class LessonEditor implements HasUnsavedChanges {
   protected move(index: number, by: number): void {
     const to = index + by;
     if (to < 0 || to >= this.activities().length) return;
-    this.drop({ previousIndex: index, currentIndex: to } as CdkDragDrop<Activity[]>);
+    this.drop({ previousIndex: index, currentIndex: to } as CdkDragDrop<Activity[]>, true);
+  }
+
+  /**
+   * After a keyboard move focus stays on the moved item's arrow, or on its other arrow when this
+   * one is now disabled (first or last, SC 2.4.3), and the new place is said (SC 4.1.3).
+   */
+  private movedByKeyboard(to: number, by: number): void {
+    const list = this.activities();
+    const activity = list[to];
+    if (!activity) return;
+    const edge = to === 0 || to === list.length - 1;
+    const up = by < 0 !== edge;
+    this.focus(`[data-activity="${activity.id}"] ${up ? '.move-up' : '.move-down'}`);
+    void this.announcer.announce(`Moved to position ${to + 1} of ${list.length}.`);
+  }
+
+  /** Opens an activity's editor (or the new one's) with focus in its title (SC 2.4.3). */
+  protected edit(id: string): void {
+    this.editing.set(id);
+    const where = id === 'new' ? 'app-activity-editor.new-activity' : `[data-activity="${id}"]`;
+    this.focus(`${where} input[formcontrolname="title"]`);
+  }
+
+  private host(selector: string): HTMLElement | null {
+    return this.element.querySelector<HTMLElement>(selector);
+  }
+
+  /** The first field shown as invalid, for focus after a refused save. */
+  private firstInvalid(): HTMLElement | null {
+    return this.host('form .mat-form-field-invalid :is(input, textarea, mat-select)');
   }
 
   /** An activity's change was saved: the server has returned an endorsed unit to draft. */
@@ -408,11 +450,19 @@ export class LessonEditor implements HasUnsavedChanges {
     this.activities.set(
       known ? list.map((a) => (a.id === activity.id ? activity : a)) : [...list, activity],
     );
+    const wasNew = this.editing() === 'new';
     this.editing.set(activity.id);
+    // An added activity's editor moves into the list: focus follows it to its title (SC 2.4.3).
+    if (wasNew) this.focus(`[data-activity="${activity.id}"] input[formcontrolname="title"]`);
   }
 
-  protected activityClosed(id: string | null): void {
+  /**
+   * Focus returns to what opened the editor (SC 2.4.3): the activity's Edit button, or "Add an
+   * activity" after adding was abandoned or the activity was deleted.
+   */
+  protected activityClosed(id: string | null, deleted: boolean): void {
     this.editing.set(null);
+    this.focus(id && !deleted ? `[data-activity="${id}"] .edit-activity` : '.add-activity');
     const lesson = this.lesson();
     // A delete closes the editor too: the list is read again so it shows what is stored.
     if (lesson && id) {

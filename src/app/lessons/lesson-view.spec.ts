@@ -1,6 +1,7 @@
 import type { HarnessLoader } from '@angular/cdk/testing';
 import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
 import { HttpTestingController } from '@angular/common/http/testing';
+import { LiveAnnouncer } from '@angular/cdk/a11y';
 import { TestBed, type ComponentFixture } from '@angular/core/testing';
 import { MatButtonHarness } from '@angular/material/button/testing';
 import { MatCheckboxHarness } from '@angular/material/checkbox/testing';
@@ -237,6 +238,39 @@ describe('LessonView', () => {
     const snack = await root.getHarness(MatSnackBarHarness);
     expect(await snack.getMessage()).toBe("That page or record doesn't exist (any more).");
   });
+
+  // WCAG 2.2 SC 4.1.3 Status Messages (start and end said) and SC 2.4.3 Focus Order (the buttons
+  // are disabled while a file is made; focus returns to the one pressed).
+  for (const [file, label, name] of [
+    ['pack.pdf', /Lesson pack/, 'the lesson pack'],
+    ['labels.pdf', /Tray labels/, 'the tray labels'],
+  ] as const) {
+    it(`announces ${name} being made and ready, and gives focus back to its button`, async () => {
+      const announce = spyOn(TestBed.inject(LiveAnnouncer), 'announce').and.resolveTo();
+      spyOn(URL, 'createObjectURL').and.returnValue('blob:file');
+      spyOn(HTMLAnchorElement.prototype, 'click');
+      await loader.getHarness(MatButtonHarness.with({ text: label }));
+      const el = fixture.nativeElement as HTMLElement;
+      const button = el.querySelector<HTMLButtonElement>(`[data-printable="${file}"]`)!;
+      button.focus();
+      // Focus coming into a window without it fires its focus event, which reads the plan again.
+      await settleReads();
+      for (const read of backend.match('/api/lessons/lesson-2/prep'))
+        read.flush(workedExamplePrep(plan));
+      button.click();
+      fixture.detectChanges();
+      expect(button.disabled).toBeTrue();
+      expect(announce).toHaveBeenCalledWith(`Making ${name}…`);
+      backend
+        .expectOne(`/api/lessons/lesson-2/${file}`)
+        .flush(new Blob(['%PDF-1.7'], { type: 'application/pdf' }));
+      await fixture.whenStable();
+      expect(announce).toHaveBeenCalledWith(
+        `${name.charAt(0).toUpperCase()}${name.slice(1)} is ready: it is downloading.`,
+      );
+      expect(document.activeElement).toBe(button);
+    });
+  }
 
   it('shows the safety cautions, deferring to the school', () => {
     expect(text()).toContain('choking hazard');

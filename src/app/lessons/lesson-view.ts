@@ -29,6 +29,7 @@ import { clockTime, dayLabel } from './clock';
 import { groupSizeFor } from './group-size';
 import { LessonsApi, type Printable } from './lessons-api';
 import { saveBlob } from '../files/transfer';
+import { transferFeedback } from '../a11y/transfer-feedback';
 import { GroupBorrowsPipe } from './group-borrows';
 import { PullList, type PartInfo } from './pull-list';
 import { Timeline } from './timeline';
@@ -70,6 +71,7 @@ interface Conflict {
 export class LessonView {
   private readonly api = inject(LessonsApi);
   private readonly notifier = inject(Notifier);
+  private readonly feedback = transferFeedback();
   private readonly injector = inject(Injector);
   private readonly session = inject(Session);
 
@@ -182,16 +184,23 @@ export class LessonView {
   protected print(file: Printable): void {
     if (this.download()) return;
     this.download.set({ file, fraction: null });
+    const what = PRINTABLE_NAMES[file];
+    const button = `[data-printable="${file}"]`;
+    this.feedback.started(what);
     this.api.download(this.id(), file).subscribe({
       next: (event) => {
         if (event.kind === 'progress') this.download.set({ file, fraction: event.fraction });
         else {
           this.download.set(null);
           saveBlob(event.blob, event.name ?? fileName(this.lesson(), file));
+          this.feedback.finished(what, button);
         }
       },
       // The interceptor has shown the error.
-      error: () => this.download.set(null),
+      error: () => {
+        this.download.set(null);
+        this.feedback.failed(button);
+      },
     });
   }
 
@@ -224,6 +233,13 @@ export class LessonView {
     );
   }
 }
+
+/** How the announcements name each printable. */
+const PRINTABLE_NAMES: Record<Printable, string> = {
+  'pack.pdf': 'the lesson pack',
+  'labels.pdf': 'the tray labels',
+  'prep.ics': 'the prep tasks calendar file',
+};
 
 function fileName(lesson: Lesson | null, file: Printable): string {
   const base = (lesson?.title ?? 'lesson').replace(/[^\w-]+/g, '-').replace(/^-|-$/g, '');

@@ -1,4 +1,5 @@
 import { HttpTestingController } from '@angular/common/http/testing';
+import { LiveAnnouncer } from '@angular/cdk/a11y';
 import { TestBed } from '@angular/core/testing';
 import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
 import { MatButtonHarness } from '@angular/material/button/testing';
@@ -40,6 +41,36 @@ describe('Relief', () => {
     await print.click();
     const req = http.expectOne('/api/lessons/lesson-4/pack.pdf');
     expect(req.request.responseType).toBe('blob');
+    http.verify();
+  });
+
+  // WCAG 2.2 SC 4.1.3 Status Messages (start and end said) and SC 2.4.3 Focus Order (Print was
+  // disabled while the pack was made; focus returns to it).
+  it('announces the pack being made and ready, and gives focus back to Print', async () => {
+    TestBed.configureTestingModule({ providers: [...testProviders(), provideMarkdown()] });
+    const announce = spyOn(TestBed.inject(LiveAnnouncer), 'announce').and.resolveTo();
+    spyOn(URL, 'createObjectURL').and.returnValue('blob:pack');
+    spyOn(HTMLAnchorElement.prototype, 'click');
+    const fixture = TestBed.createComponent(Relief);
+    fixture.detectChanges();
+    const http = TestBed.inject(HttpTestingController);
+    http.expectOne('/api/relief/lessons').flush({ lessons: [LESSON] });
+    await fixture.whenStable();
+    const el = fixture.nativeElement as HTMLElement;
+    const print = el.querySelector<HTMLButtonElement>('[data-print="lesson-4"]')!;
+    print.focus();
+    print.click();
+    fixture.detectChanges();
+    expect(print.disabled).toBeTrue();
+    expect(announce).toHaveBeenCalledWith('Making the lesson pack for Sense the wall…');
+    http
+      .expectOne('/api/lessons/lesson-4/pack.pdf')
+      .flush(new Blob(['%PDF-1.7'], { type: 'application/pdf' }));
+    await fixture.whenStable();
+    expect(announce).toHaveBeenCalledWith(
+      'The lesson pack for Sense the wall is ready: it is downloading.',
+    );
+    expect(document.activeElement).toBe(el.querySelector('[data-print="lesson-4"]'));
     http.verify();
   });
 

@@ -8,6 +8,7 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { clockTime, dayLabel } from '../lessons/clock';
 import { saveBlob } from '../files/transfer';
 import { apiResource } from '../http/resource';
+import { transferFeedback } from '../a11y/transfer-feedback';
 import { ReliefApi, type ReliefLesson } from './relief-api';
 
 /** A relief teacher's page: each assigned lesson with its notes, a link and its lesson pack. */
@@ -27,6 +28,7 @@ import { ReliefApi, type ReliefLesson } from './relief-api';
 })
 export class Relief {
   private readonly api = inject(ReliefApi);
+  private readonly feedback = transferFeedback();
 
   private readonly read = apiResource({ load: () => this.api.lessons() });
   /** Null while loading; a failed read (shown by the error interceptor) lists none. */
@@ -43,6 +45,9 @@ export class Relief {
   protected print(lesson: ReliefLesson): void {
     if (this.printing()) return;
     this.printing.set({ id: lesson.id, fraction: null });
+    const what = `the lesson pack for ${lesson.title}`;
+    const button = `[data-print="${lesson.id}"]`;
+    this.feedback.started(what);
     this.api.pack(lesson.id).subscribe({
       next: (event) => {
         if (event.kind === 'progress')
@@ -50,10 +55,14 @@ export class Relief {
         else {
           this.printing.set(null);
           saveBlob(event.blob, event.name ?? `${lesson.className}-lesson-pack.pdf`);
+          this.feedback.finished(what, button);
         }
       },
       // The error interceptor shows what went wrong.
-      error: () => this.printing.set(null),
+      error: () => {
+        this.printing.set(null);
+        this.feedback.failed(button);
+      },
     });
   }
 }
