@@ -26,7 +26,12 @@ import {
   userIds,
   type SignIn,
 } from '../support/planning.js';
-import { outcomeFrameworks, outcomes, unitCoauthors } from '../../server/db/schema/index.js';
+import {
+  outcomeFrameworks,
+  outcomes,
+  unitCoauthors,
+  unitOutcomes,
+} from '../../server/db/schema/index.js';
 
 const COLLEAGUE = 'colleague@kestrel-ridge.example';
 type Who =
@@ -223,5 +228,51 @@ describe('a comment’s e-mail', () => {
     // The private unit's authors: nobody else has commented or taken a step on it, and the
     // lead (the school's only one) is the one commenting.
     assert.deepEqual(to.map((a) => a.address).sort(), [PARTNER, TEACHER].sort());
+  });
+});
+
+describe('the lead’s summary counts the current term’s gaps', () => {
+  it('counts an outcome covered only in another term as a gap, and one covered in this term not', async () => {
+    const db = t.database.db;
+    const { kestrel } = await schoolIds(db);
+    const ids = await userIds(db);
+    const lead = await as(LEAD);
+    const before = await lead.get('/api/review/summary');
+    assert.equal(before.status, 200);
+    // The demo school has its terms set up, so the summary names the current (or next) one.
+    const term = before.body.term as { number: number } | null;
+    assert.ok(term, 'a current term');
+    const [fw] = await db
+      .insert(outcomeFrameworks)
+      .values({ schoolId: kestrel, name: 'Summary gaps framework' })
+      .returning();
+    const rows = await db
+      .insert(outcomes)
+      .values(
+        ['SG-1', 'SG-2', 'SG-3'].map((code) => ({ frameworkId: fw!.id, code, description: code })),
+      )
+      .returning();
+    const otherTerm = term.number === 1 ? 2 : 1;
+    for (const [title, unitTerm, outcome] of [
+      ['Covers SG-1 this term', term.number, rows[0]!],
+      ['Covers SG-2 another term', otherTerm, rows[1]!],
+    ] as const) {
+      const unitId = await insertUnit(db, {
+        schoolId: kestrel,
+        ownerId: ids[TEACHER]!,
+        title,
+        yearLevel: 3,
+        term: unitTerm,
+        status: 'in-review',
+        visibility: 'school',
+        submittedAt: new Date(),
+      });
+      await db.insert(unitOutcomes).values({ unitId, outcomeId: outcome.id });
+    }
+    const after = await lead.get('/api/review/summary');
+    const counted = after.body.frameworks.find((f: { id: string }) => f.id === fw!.id);
+    // Worked out by hand: SG-1 is covered in this term; SG-2 (another term) and SG-3 are gaps.
+    assert.deepEqual(counted, { id: fw!.id, name: 'Summary gaps framework', outcomes: 3, gaps: 2 });
+    assert.equal(after.body.waiting, before.body.waiting + 2);
   });
 });
