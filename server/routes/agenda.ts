@@ -3,7 +3,7 @@
  * recharge gaps of a school, built from the same engine as each lesson's prep plan.
  */
 import { Router } from 'express';
-import { and, asc, eq, gte, inArray, lt } from 'drizzle-orm';
+import { and, asc, desc, eq, gte, inArray, lt } from 'drizzle-orm';
 import { DateTime } from 'luxon';
 import { z } from 'zod';
 import type { AppContext } from '../context.js';
@@ -47,9 +47,37 @@ interface LessonRow {
   kitTypeId: string;
 }
 
-/** Lessons of the school in [from, to) (local dates) that the actor may read, in time order. */
-async function readableLessons(tx: Tx, actor: Actor, from: string, to: string, mine: boolean) {
-  const rows: LessonRow[] = await tx
+/** Which lessons to read: a range of local dates, the order, and one page of the candidates. */
+interface LessonQuery {
+  from?: string;
+  to?: string;
+  latestFirst?: boolean;
+  limit?: number;
+  offset?: number;
+}
+
+/**
+ * Lessons of the school in [from, to) (local dates) that the actor may read, in time order; with
+ * `mine`, only those of units they author and those they cover as the relief teacher.
+ */
+async function readableLessons(
+  tx: Tx,
+  actor: Actor,
+  from: string,
+  to: string,
+  mine: boolean,
+): Promise<LessonRow[]> {
+  return (await readablePage(tx, actor, { from, to }, mine)).rows;
+}
+
+/** One page of candidates (`read` of them) and those of them the actor may read. */
+async function readablePage(
+  tx: Tx,
+  actor: Actor,
+  q: LessonQuery,
+  mine: boolean,
+): Promise<{ rows: LessonRow[]; read: number }> {
+  const select = tx
     .select({
       id: lessons.id,
       title: lessons.title,
@@ -69,16 +97,21 @@ async function readableLessons(tx: Tx, actor: Actor, from: string, to: string, m
     .where(
       and(
         eq(lessons.schoolId, actor.schoolId),
-        gte(lessons.startsAt, from),
-        lt(lessons.startsAt, to),
+        q.from ? gte(lessons.startsAt, q.from) : undefined,
+        q.to ? lt(lessons.startsAt, q.to) : undefined,
       ),
     )
-    .orderBy(asc(lessons.startsAt));
+    .orderBy(
+      q.latestFirst ? desc(lessons.startsAt) : asc(lessons.startsAt),
+      q.latestFirst ? desc(lessons.id) : asc(lessons.id),
+    );
+  const rows: LessonRow[] =
+    q.limit === undefined ? await select : await select.limit(q.limit).offset(q.offset ?? 0);
   const unitIds = [...new Set(rows.map((r) => r.unitId))];
   const co = unitIds.length
     ? await tx.select().from(unitCoauthors).where(inArray(unitCoauthors.unitId, unitIds))
     : [];
-  return rows.filter((r) => {
+  const readable = rows.filter((r) => {
     const facts = {
       schoolId: actor.schoolId,
       ownerId: r.ownerId,
@@ -89,6 +122,35 @@ async function readableLessons(tx: Tx, actor: Actor, from: string, to: string, m
     if (!mine) return true;
     return authorsUnit(actor, facts) || r.reliefTeacherId === actor.id;
   });
+  return { rows: readable, read: rows.length };
+}
+
+/** The Monday (ISO 8601 weeks start on Monday) of the week holding a stored local date-time. */
+function mondayOf(stored: string): string {
+  return DateTime.fromISO(toLocal(stored).slice(0, 10)).startOf('week').toISODate()!;
+}
+
+/**
+ * The Monday of the nearest week before `before` (or from `after` on) holding a lesson the
+ * agenda would list, or null. Candidates are read a page at a time nearest first, each page
+ * through the policy, so the first one kept is the nearest.
+ */
+async function nearestWeek(
+  tx: Tx,
+  actor: Actor,
+  mine: boolean,
+  side: { before: string } | { after: string },
+): Promise<string | null> {
+  const limit = 100;
+  for (let offset = 0; ; offset += limit) {
+    const q: LessonQuery =
+      'before' in side
+        ? { to: side.before, latestFirst: true, limit, offset }
+        : { from: side.after, limit, offset };
+    const page = await readablePage(tx, actor, q, mine);
+    if (page.rows[0]) return mondayOf(page.rows[0].startsAt);
+    if (page.read < limit) return null;
+  }
 }
 
 function lessonSummary(r: LessonRow) {
@@ -113,7 +175,7 @@ export function agendaRouter(ctx: AppContext): Router {
     const monday = DateTime.fromISO(q.week).startOf('week');
     const from = monday.toISODate()!;
     const to = monday.plus({ days: 7 }).toISODate()!;
-    const result = await ctx.db.transaction(
+    const { out: result, otherWeeks } = await ctx.db.transaction(
       async (tx) => {
         const rows = await readableLessons(tx, actor, from, to, q.mine === 'true');
         const out: {
@@ -131,7 +193,14 @@ export function agendaRouter(ctx: AppContext): Router {
           const ticks = new Map((await readTicks(tx, r.id, keys)).map((t) => [t.taskKey, t]));
           out.push({ lesson: lessonSummary(r), plan, ticks });
         }
-        return out;
+        // The nearest weeks either side with lessons of the list, so Home can open on the week
+        // that matters and an empty week can point to the next (or last) one with lessons.
+        const mineOnly = q.mine === 'true';
+        const otherWeeks = {
+          previous: await nearestWeek(tx, actor, mineOnly, { before: from }),
+          next: await nearestWeek(tx, actor, mineOnly, { after: to }),
+        };
+        return { out, otherWeeks };
       },
       { isolationLevel: 'repeatable read', accessMode: 'read only' },
     );
@@ -186,6 +255,7 @@ export function agendaRouter(ctx: AppContext): Router {
       })),
       tasks,
       attention,
+      otherWeeks,
     });
   });
 

@@ -36,6 +36,8 @@ export const agendaSchema = z.object({
   attention: z.array(
     z.object({ lesson: agendaLessonSchema, kind: z.string(), message: z.string() }),
   ),
+  /** Mondays of the nearest weeks before and after this one that hold lessons of the list. */
+  otherWeeks: z.object({ previous: z.string().nullable(), next: z.string().nullable() }),
 });
 export type Agenda = z.infer<typeof agendaSchema>;
 
@@ -69,6 +71,3 @@ export function today(now: Date = new Date()): string {
   const pad = (n: number) => String(n).padStart(2, '0');
   return `${now.getFullYear()}-${pad(now.getMonth() + 1)}-${pad(now.getDate())}`;
 }
-
-/** The first week of the demo data (term 3 of 2026). */
-export const DEMO_WEEK = '2026-07-27';

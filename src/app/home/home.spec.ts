@@ -45,7 +45,17 @@ const WEEK: Agenda = {
     },
   ],
   attention: [{ lesson: LESSON, kind: 'shortfall', message: '1 × RB-001 short for group 7.' }],
+  otherWeeks: { previous: '2026-07-20', next: '2026-08-03' },
 };
+
+/** A week without lessons, and the nearest weeks with some either side. */
+const empty = (week: string, previous: string | null, next: string | null): Agenda => ({
+  week,
+  lessons: [],
+  tasks: [],
+  attention: [],
+  otherWeeks: { previous, next },
+});
 
 describe('mondayOf and addDays', () => {
   it('finds the Monday of a week (ISO 8601 weeks start on Monday)', () => {
@@ -89,20 +99,27 @@ describe('Home', () => {
     await clicked;
   }
 
-  it('asks for this week and, when it is empty, links to the demo term’s first week', async () => {
+  it('opens on this week when it holds a lesson of this person', async () => {
     const current = mondayOf(today());
-    backend.expectOne(url(current)).flush({ week: current, lessons: [], tasks: [], attention: [] });
+    backend.expectOne(url(current)).flush({ ...WEEK, week: current });
     await fixture.whenStable();
-    expect((fixture.nativeElement as HTMLElement).textContent).toContain(
-      'Nothing planned for you this week.',
+    // No second read (afterEach verifies): the week with a lesson is the one that matters.
+    expect((fixture.nativeElement as HTMLElement).querySelector('.lessons')!.textContent).toContain(
+      'Drive train',
     );
-    await clickAndAnswer(
-      await loader.getHarness(MatButtonHarness.with({ text: /week of 27 July 2026/ })),
-      '2026-07-27',
-      WEEK,
-    );
+  });
+
+  it('opens on the next week with their lessons when this week has none', async () => {
+    const current = mondayOf(today());
+    const next = addDays(current, 21);
+    backend.expectOne(url(current)).flush(empty(current, null, next));
+    await settleReads();
+    backend.expectOne(url(next)).flush(WEEK);
     await fixture.whenStable();
     const el = fixture.nativeElement as HTMLElement;
+    expect(el.querySelector('h2')!.textContent).toContain(
+      `Week of Mon ${Number(next.slice(8, 10))} `,
+    );
     expect(el.querySelector('.lessons a')!.getAttribute('href')).toBe('/lessons/lesson-2');
     expect(el.querySelector('.lessons')!.textContent).toContain('Tue 28 Jul, 11:10 am–12:00 pm');
     const tasks = Array.from(el.querySelectorAll('.tasks li')).map((li) =>
@@ -118,23 +135,45 @@ describe('Home', () => {
     expect(el.querySelector('.attention')!.textContent).toContain('1 × RB-001 short for group 7.');
   });
 
-  // WCAG 2.2 SC 2.4.3 Focus Order: the link goes away with the empty week; focus moves to the week.
-  it('"Go to the week of…" moves focus to the week shown', async () => {
+  it('with no lessons ahead, stays on this week and points back to the last week with lessons', async () => {
     const current = mondayOf(today());
-    backend.expectOne(url(current)).flush({ week: current, lessons: [], tasks: [], attention: [] });
+    backend.expectOne(url(current)).flush(empty(current, '2026-09-14', null));
+    await fixture.whenStable();
+    expect((fixture.nativeElement as HTMLElement).textContent).toContain(
+      'Nothing planned for you this week.',
+    );
+    await clickAndAnswer(
+      await loader.getHarness(
+        MatButtonHarness.with({
+          text: 'Go back to your last week with lessons (week of Mon 14 Sep 2026)',
+        }),
+      ),
+      '2026-09-14',
+      WEEK,
+    );
+    await fixture.whenStable();
+    expect((fixture.nativeElement as HTMLElement).querySelector('.lessons')!.textContent).toContain(
+      'Drive train',
+    );
+  });
+
+  // WCAG 2.2 SC 2.4.3 Focus Order: the link goes away with the empty week; focus moves to the week.
+  it('the link to another week moves focus to the week shown', async () => {
+    const current = mondayOf(today());
+    backend.expectOne(url(current)).flush(empty(current, '2026-09-14', null));
     await fixture.whenStable();
     const el = fixture.nativeElement as HTMLElement;
     const link = [...el.querySelectorAll<HTMLButtonElement>('button')].find((b) =>
-      /week of 27 July 2026/.test(b.textContent ?? ''),
+      /week of Mon 14 Sep 2026/.test(b.textContent ?? ''),
     )!;
     link.focus();
     link.click();
     await settleReads();
-    backend.expectOne(url('2026-07-27')).flush(WEEK);
+    backend.expectOne(url('2026-09-14')).flush({ ...WEEK, week: '2026-09-14' });
     await fixture.whenStable();
     expect(link.isConnected).toBeFalse();
     expect(document.activeElement).toBe(el.querySelector('h2.week-heading'));
-    expect(document.activeElement?.textContent).toContain('27 Jul');
+    expect(document.activeElement?.textContent).toContain('14 Sep');
   });
 
   it('moves to the previous and next week', async () => {
@@ -171,7 +210,8 @@ describe('Home', () => {
     const pending = backend.expectOne(url(addDays(current, 7)));
     expect(el.querySelector('.lessons')!.textContent).toContain('Drive train');
     expect(el.querySelector('mat-progress-bar')).not.toBeNull();
-    pending.flush({ week: addDays(current, 7), lessons: [], tasks: [], attention: [] });
+    // An empty week the person moved to stays shown (no jump: afterEach verifies no other read).
+    pending.flush(empty(addDays(current, 7), current, addDays(current, 28)));
     await clicked;
     await fixture.whenStable();
     expect(el.textContent).toContain('Nothing planned for you this week.');

@@ -2,7 +2,7 @@ import { HttpTestingController } from '@angular/common/http/testing';
 import { TestBed, type ComponentFixture } from '@angular/core/testing';
 import { provideMarkdown } from 'ngx-markdown';
 import type { ReliefDay } from '../../../shared/schemas/sharing';
-import { errorBody, testProviders } from '../testing/test-providers';
+import { errorBody, settleReads, testProviders } from '../testing/test-providers';
 import { Today } from './today';
 
 /** An invented relief day: one lesson of the invented demo school, nothing left to prepare. */
@@ -55,6 +55,38 @@ describe('Today', () => {
     expect(text()).toContain('Room 12');
     expect(text()).not.toContain('You are offline');
     expect(JSON.parse(localStorage.getItem(KEY)!).value).toEqual(DAY);
+  });
+
+  it('on a day without lessons, lists the next lessons assigned to them', async () => {
+    backend.expectOne('/api/relief/today').flush({ date: '2026-08-03', lessons: [] });
+    // The assigned lessons are a second read, started once the empty day is shown.
+    await settleReads();
+    const lesson = (id: string, date: string, title: string) => ({
+      id,
+      title,
+      startsAt: `${date}T11:10`,
+      endsAt: `${date}T12:00`,
+      room: 'Room 12',
+      unitId: 'unit-rovers',
+      unitTitle: 'Rescue Rovers',
+      className: '4K',
+      reliefNotes: '',
+    });
+    backend.expectOne('/api/relief/lessons').flush({
+      lessons: [
+        lesson('lesson-1', '2026-07-21', 'Earlier cover'),
+        lesson('lesson-4', '2026-08-04', 'Sense the wall'),
+      ],
+    });
+    await fixture.whenStable();
+    expect(text()).toContain('No lessons are assigned to you today.');
+    const items = Array.from(
+      (fixture.nativeElement as HTMLElement).querySelectorAll('.upcoming li'),
+    ).map((li) => li.textContent!.replace(/\s+/g, ' ').trim());
+    // Past lessons are left out; 4 August 2026 is a Tuesday (ISO 8601 calendar).
+    expect(items).toEqual(['Sense the wall Tue 4 Aug, 11:10 am–12:00 pm · 4K · Rescue Rovers']);
+    const link = (fixture.nativeElement as HTMLElement).querySelector('.upcoming a')!;
+    expect(link.getAttribute('href')).toBe('/lessons/lesson-4');
   });
 
   it('offline, shows the saved copy and says from when', async () => {

@@ -16,6 +16,9 @@ import { ReliefApi } from './relief-api';
 
 type DayLesson = ReliefDay['lessons'][number];
 
+/** How many of the next assigned lessons a day without lessons lists. */
+const NEXT = 5;
+
 /** What the page shows: the day (live or a saved copy), or why there is none. */
 type Shown = (MaybeSaved<ReliefDay> & { problem: null }) | { problem: string };
 
@@ -52,6 +55,20 @@ type Shown = (MaybeSaved<ReliefDay> & { problem: null }) | { problem: string };
             No lessons are assigned to you today.
             <a routerLink="/relief">All your lessons</a>
           </p>
+          @if (upcoming().length) {
+            <h2>Your next lessons</h2>
+            <ul class="upcoming">
+              @for (lesson of upcoming(); track lesson.id) {
+                <li>
+                  <a [routerLink]="['/lessons', lesson.id]">{{ lesson.title }}</a>
+                  <span class="muted">
+                    {{ when(lesson.startsAt, lesson.endsAt) }} · {{ lesson.className }} ·
+                    {{ lesson.unitTitle }}
+                  </span>
+                </li>
+              }
+            </ul>
+          }
         }
         <ol class="lessons">
           @for (lesson of d.lessons; track lesson.id) {
@@ -141,6 +158,9 @@ type Shown = (MaybeSaved<ReliefDay> & { problem: null }) | { problem: string };
       border: 2px solid currentColor;
       border-radius: 8px;
     }
+    .upcoming li {
+      margin-bottom: 8px;
+    }
     .actions {
       display: flex;
       gap: 12px;
@@ -162,10 +182,29 @@ export class Today {
     return shown && shown.problem === null ? shown.savedAt : null;
   });
   protected readonly problem = computed(() => this.read.value()?.problem ?? null);
+  /**
+   * A live day without lessons reads the person's assigned lessons, so their Home still shows
+   * what is theirs: the next few from today on (offline, the saved day says enough).
+   */
+  private readonly assignedRead = apiResource({
+    params: () => {
+      const day = this.day();
+      return day && day.lessons.length === 0 && this.savedAt() === null ? day.date : undefined;
+    },
+    load: (date: string) =>
+      this.relief
+        .lessons()
+        .pipe(map(({ lessons }) => lessons.filter((l) => l.startsAt >= date).slice(0, NEXT))),
+  });
+  protected readonly upcoming = computed(() => this.assignedRead.value() ?? []);
   protected readonly printing = signal<string | null>(null);
 
   protected clock(value: string): string {
     return clockTime(value);
+  }
+
+  protected when(startsAt: string, endsAt: string): string {
+    return `${dayLabel(startsAt, false)}, ${clockTime(startsAt)}–${clockTime(endsAt)}`;
   }
 
   protected dayName(date: string): string {
