@@ -1,5 +1,5 @@
 /** Creating and changing lessons: the checks against the school's records, then the writes. */
-import { eq, sql } from 'drizzle-orm';
+import { eq, inArray, sql } from 'drizzle-orm';
 import type { Tx } from '../db/client.js';
 import { activities, kitTypes, lessons, lessonTubs, materials, units } from '../db/schema/index.js';
 import type { Actor } from '../auth/policy.js';
@@ -61,6 +61,65 @@ async function codesMissingFrom(tx: Tx, lessonId: string, kitTypeId: string): Pr
     .sort();
 }
 
+/** The material lines of the lesson's activities (line id, activity id and title, part code). */
+async function linesUsing(tx: Tx, lessonId: string) {
+  return tx
+    .select({
+      id: materials.id,
+      activityId: activities.id,
+      title: activities.title,
+      code: materials.partCode,
+    })
+    .from(materials)
+    .innerJoin(activities, eq(activities.id, materials.activityId))
+    .where(eq(activities.lessonId, lessonId));
+}
+
+/** A map that would list one part twice in an activity is refused (the engine refuses it). */
+async function mergeProblems(tx: Tx, lessonId: string, map: Map<string, string>) {
+  if (!map.size) return [];
+  const problems: { path: string; message: string }[] = [];
+  const byActivity = new Map<string, { title: string; codes: string[] }>();
+  for (const l of await linesUsing(tx, lessonId)) {
+    if (!l.code) continue;
+    const entry = byActivity.get(l.activityId) ?? { title: l.title, codes: [] };
+    entry.codes.push(map.get(l.code) ?? l.code);
+    byActivity.set(l.activityId, entry);
+  }
+  for (const { title, codes } of byActivity.values()) {
+    const twice = codes.find((c, i) => codes.indexOf(c) !== i);
+    if (twice)
+      problems.push({
+        path: 'partMap',
+        message: `“${title}” would list ${twice} twice: map the parts to different ones, or edit the activity first.`,
+      });
+  }
+  return problems;
+}
+
+/** Maps and drops material lines for a new kit type; the activities changed get a new version. */
+async function switchMaterials(
+  tx: Tx,
+  lessonId: string,
+  map: Map<string, string>,
+  drop: string[],
+): Promise<void> {
+  const lines = (await linesUsing(tx, lessonId)).filter(
+    (l) => l.code !== null && (map.has(l.code) || drop.includes(l.code)),
+  );
+  for (const line of lines) {
+    const to = map.get(line.code!);
+    if (to) await tx.update(materials).set({ partCode: to }).where(eq(materials.id, line.id));
+    else await tx.delete(materials).where(eq(materials.id, line.id));
+  }
+  const changed = [...new Set(lines.map((l) => l.activityId))];
+  if (changed.length)
+    await tx
+      .update(activities)
+      .set({ version: sql`${activities.version} + 1` })
+      .where(inArray(activities.id, changed));
+}
+
 /**
  * Applies a `PATCH /api/lessons/:id` (editing checked by the caller). One end of the window is
  * checked against the stored other end (in elapsed time, in the school's timezone); a new kit
@@ -91,21 +150,38 @@ export async function updateLesson(
       endsAt: windowSent ? endsAt : undefined,
     })),
   );
+  // A new kit type must hold every part the activities use, unless the save maps each missing
+  // part to one of the new kit's (partMap) or leaves its lines out (dropMissingParts).
+  let switching: { map: Map<string, string>; drop: string[] } | null = null;
   if (data?.kitTypeId && kitChanged && !details.some((d) => d.path === 'kitTypeId')) {
     const missing = await codesMissingFrom(tx, lessonId, data.kitTypeId);
-    if (missing.length) {
+    const newCodes = await partCodesOf(tx, data.kitTypeId);
+    const map = new Map<string, string>();
+    for (const [from, to] of Object.entries(data.partMap ?? {})) {
+      if (!missing.includes(from)) continue;
+      if (!newCodes.has(to))
+        details.push({
+          path: `partMap.${from}`,
+          message: `The new kit type has no part ${to}.`,
+        });
+      else map.set(from, to);
+    }
+    const unresolved = missing.filter((c) => !map.has(c));
+    if (unresolved.length && !data.dropMissingParts) {
       const [kit] = await tx
         .select({ name: kitTypes.name })
         .from(kitTypes)
         .where(eq(kitTypes.id, data.kitTypeId));
       details.push({
         path: 'kitTypeId',
-        message: `The activities use parts that ${kit?.name ?? 'this kit type'} does not have: ${missing.join(', ')}.`,
+        message: `The activities use parts that ${kit?.name ?? 'this kit type'} does not have: ${unresolved.join(', ')}. Choose a part of it for each, or leave them out.`,
       });
     }
+    details.push(...(await mergeProblems(tx, lessonId, map)));
+    switching = { map, drop: data.dropMissingParts ? unresolved : [] };
   }
   if (!data || details.length) throw invalid(details);
-  const { version, tubIds, ...fields } = data;
+  const { version, tubIds, partMap: _map, dropMissingParts: _drop, ...fields } = data;
   const updated = await versionedUpdate(tx, lessons, eq(lessons.id, lessonId), version, {
     ...fields,
     updatedAt: sql`now()`,
@@ -115,6 +191,7 @@ export async function updateLesson(
     .select({ kitTypeId: lessons.kitTypeId })
     .from(lessons)
     .where(eq(lessons.id, lessonId));
+  if (switching) await switchMaterials(tx, lessonId, switching.map, switching.drop);
   const rebook = tubIds ?? (kitChanged ? await defaultTubIds(tx, saved!.kitTypeId) : undefined);
   if (rebook) {
     await tx.delete(lessonTubs).where(eq(lessonTubs.lessonId, lessonId));

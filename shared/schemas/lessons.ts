@@ -134,6 +134,12 @@ export type LessonCreate = z.infer<typeof lessonCreateSchema>;
  * `PATCH /api/lessons/:id`. A window given whole is checked here; one end alone is checked on the
  * server against the stored other end.
  */
+/** A part code in a kit-type switch's map. */
+const switchCode = singleLine({ message: 'Enter a part code.' })
+  .trim()
+  .min(1, { message: 'Enter a part code.' })
+  .max(64);
+
 export const lessonUpdateSchema = z
   .object(
     {
@@ -151,6 +157,16 @@ export const lessonUpdateSchema = z
       successCriteria: lessonFields.successCriteria.optional(),
       reliefNotes: lessonFields.reliefNotes.optional(),
       reliefTeacherId: lessonFields.reliefTeacherId.optional(),
+      /**
+       * With a new kit type: the parts of the old one the activities use, mapped to parts of the
+       * new one (old code → new code), in the same save.
+       */
+      partMap: z
+        .record(switchCode, switchCode, { error: 'Map each part code to a part code.' })
+        .refine((m) => Object.keys(m).length <= 500, { error: 'At most 500 parts can be mapped.' })
+        .optional(),
+      /** With a new kit type: leave out the material lines whose parts it lacks (unmapped). */
+      dropMissingParts: z.boolean({ error: 'Say whether to leave those parts out.' }).optional(),
     },
     BODY,
   )

@@ -24,7 +24,13 @@ import {
   userIds,
   type SignIn,
 } from '../support/planning.js';
-import { activities, bellPeriods, lessons, lessonTubs } from '../../server/db/schema/index.js';
+import {
+  activities,
+  bellPeriods,
+  lessons,
+  lessonTubs,
+  materials,
+} from '../../server/db/schema/index.js';
 
 let t: TestApp;
 let as: SignIn;
@@ -457,6 +463,88 @@ describe('PATCH /api/lessons/:id', () => {
       booked.map((b) => b.tubId),
       [f.tub['Mk2 A']],
     );
+  });
+
+  it('switches kit type in one save, mapping or leaving out the parts the new one lacks', async () => {
+    const owner = await as(TEACHER);
+    const setUp = async () => {
+      const lesson = await newLesson(await newUnit());
+      const url = `/api/lessons/${lesson.id}`;
+      const made = await owner.post(`${url}/activities`, {
+        title: 'Build',
+        kind: 'build',
+        minutes: 20,
+        materials: [
+          { partCode: 'TR-010', qty: 2, per: 'group' },
+          { partCode: 'TR-020', qty: 1, per: 'group' },
+          { consumable: 'Masking tape', qty: 1, per: 'group' },
+        ],
+      });
+      assert.equal(made.status, 201, made.text);
+      return { lesson, url };
+    };
+    const linesOf = async (lessonId: string) =>
+      (
+        await t.database.db
+          .select({
+            code: materials.partCode,
+            consumable: materials.consumable,
+            v: activities.version,
+          })
+          .from(materials)
+          .innerJoin(activities, eq(activities.id, materials.activityId))
+          .where(eq(activities.lessonId, lessonId))
+          .orderBy(materials.position)
+      ).map((l) => [l.code ?? l.consumable, l.v]);
+
+    // Mapped: TR-010 becomes TG-001; TR-020 left out; the consumable stays.
+    const a = await setUp();
+    const refusedTwice = await owner.patch(a.url, {
+      version: 1,
+      kitTypeId: f.gateKit,
+      partMap: { 'TR-010': 'TG-001', 'TR-020': 'TG-001' },
+    });
+    assert.equal(refusedTwice.status, 400, 'one part listed twice in an activity');
+    assert.match(refusedTwice.body.error.details[0].message, /would list TG-001 twice/);
+    const unknown = await owner.patch(a.url, {
+      version: 1,
+      kitTypeId: f.gateKit,
+      partMap: { 'TR-010': 'TG-999' },
+      dropMissingParts: true,
+    });
+    assert.equal(unknown.status, 400);
+    assert.deepEqual(paths(unknown), ['partMap.TR-010']);
+    assert.deepEqual(
+      await linesOf(a.lesson.id),
+      [
+        ['TR-010', 1],
+        ['TR-020', 1],
+        ['Masking tape', 1],
+      ],
+      'refused saves change nothing',
+    );
+    const half = await owner.patch(a.url, {
+      version: 1,
+      kitTypeId: f.gateKit,
+      partMap: { 'TR-010': 'TG-001' },
+    });
+    assert.equal(half.status, 400, 'TR-020 is neither mapped nor left out');
+    assert.match(half.body.error.details[0].message, /does not have: TR-020\./);
+    const moved = await owner.patch(a.url, {
+      version: 1,
+      kitTypeId: f.gateKit,
+      partMap: { 'TR-010': 'TG-001' },
+      dropMissingParts: true,
+    });
+    assert.equal(moved.status, 200, moved.text);
+    assert.equal(moved.body.kitType.name, 'Trial Gate Tub');
+    assert.deepEqual(moved.body.tubIds, [f.tub['Gate 1']]);
+    assert.deepEqual(await linesOf(a.lesson.id), [
+      ['TG-001', 2],
+      ['Masking tape', 2],
+    ]);
+    // The lesson plans with the new kit (no part it lacks is left behind).
+    assert.equal((await owner.get(`${a.url}/prep`)).status, 200);
   });
 
   it('who may edit: authors (lead and shared readers 403, other schools 404, anonymous 401)', async () => {
