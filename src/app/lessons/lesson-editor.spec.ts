@@ -11,7 +11,7 @@ import { Router } from '@angular/router';
 import { provideMarkdown } from 'ngx-markdown';
 import type { TubSummary } from '../../../shared/schemas/kits';
 import { MatDialogHarness } from '@angular/material/dialog/testing';
-import type { Lesson } from '../../../shared/schemas/lessons';
+import type { Activity, Lesson } from '../../../shared/schemas/lessons';
 import type { Unit } from '../../../shared/schemas/units';
 import { Blank, errorBody, settleReads, testProviders } from '../testing/test-providers';
 import { LessonEditor } from './lesson-editor';
@@ -19,6 +19,7 @@ import { LessonEditor } from './lesson-editor';
 // Invented demo records; ids are valid UUIDs because the form checks them as the schema does.
 const CLASS_ID = '0b0e8a52-4d4f-4c43-9d0a-1a2b3c4d5e01';
 const KIT_ID = '0b0e8a52-4d4f-4c43-9d0a-1a2b3c4d5e02';
+const GATE_KIT_ID = '0b0e8a52-4d4f-4c43-9d0a-1a2b3c4d5e04';
 const PERIOD_ID = '0b0e8a52-4d4f-4c43-9d0a-1a2b3c4d5e03';
 const RELIEF_ID = '00000000-0000-4000-8000-0000000000e1';
 const TUB_IDS = ['0b0e8a52-4d4f-4c43-9d0a-1a2b3c4d5e11', '0b0e8a52-4d4f-4c43-9d0a-1a2b3c4d5e12'];
@@ -137,6 +138,16 @@ describe('LessonEditor', () => {
           partCount: 0,
           pieceCount: 0,
           tubCount: 3,
+          lessonCount: 0,
+        },
+        {
+          id: GATE_KIT_ID,
+          name: 'Gate Builder Tub',
+          description: '',
+          version: 1,
+          partCount: 1,
+          pieceCount: 4,
+          tubCount: 1,
           lessonCount: 0,
         },
       ],
@@ -287,6 +298,98 @@ describe('LessonEditor', () => {
     second.flush(lesson({ version: 5, groupSize: 4, title: 'Build and test the rover' }));
     flushKit();
     expect(fixture.componentInstance.hasUnsavedChanges()).toBeFalse();
+  });
+
+  it('switches kit type in one save after listing the parts the new kit lacks (map one, leave one out)', async () => {
+    await start({ id: 'lesson-1' });
+    const material = (
+      partCode: string,
+      partName: string,
+      qty: number,
+      per: 'group' | 'student',
+    ) => ({
+      id: `m-${partCode}`,
+      partCode,
+      partName,
+      consumable: null,
+      qty,
+      per,
+      returnable: true,
+    });
+    const build: Activity = {
+      id: 'a-1',
+      lessonId: 'lesson-1',
+      version: 1,
+      position: 0,
+      title: 'Build',
+      kind: 'build',
+      minutes: 20,
+      materials: [material('RB-010', 'Motor', 2, 'group'), material('RB-020', 'Pin', 4, 'student')],
+      attachments: [],
+    };
+    backend.expectOne('/api/lessons/lesson-1').flush(lesson({ activities: [build] }));
+    flushKit();
+    fixture.detectChanges();
+    const gateKit = {
+      id: GATE_KIT_ID,
+      name: 'Gate Builder Tub',
+      description: '',
+      version: 1,
+      partCount: 1,
+      pieceCount: 4,
+      tubCount: 1,
+      lessonCount: 0,
+      parts: [
+        {
+          id: 'g1',
+          code: 'GT-001',
+          name: 'Gate motor',
+          colour: null,
+          category: 'motor',
+          qty: 4,
+          compartment: null,
+          small: false,
+          chargeMinutes: null,
+          hasPhoto: false,
+        },
+      ],
+    };
+    await select('Kit type', 'Gate Builder Tub');
+    backend.expectOne(`/api/kit-types/${GATE_KIT_ID}`).flush({ kitType: gateKit });
+    backend
+      .expectOne((r) => r.url === '/api/tubs' && r.params.get('kitTypeId') === GATE_KIT_ID)
+      .flush({ tubs: [] });
+    await (await loader.getHarness(MatButtonHarness.with({ text: 'Save lesson' }))).click();
+    backend.expectOne(`/api/kit-types/${GATE_KIT_ID}`).flush({ kitType: gateKit });
+    fixture.detectChanges();
+    await fixture.whenStable();
+    const dialog = TestbedHarnessEnvironment.documentRootLoader(fixture);
+    const text = document.querySelector('mat-dialog-container')?.textContent ?? '';
+    expect(text).toContain('RB-010 Motor');
+    expect(text).toContain('Used in Build (2 per group)');
+    expect(text).toContain('RB-020 Pin');
+    const field = await dialog.getHarness(
+      MatFormFieldHarness.with({ floatingLabelText: 'Instead of RB-010' }),
+    );
+    const choice = (await field.getControl(MatSelectHarness))!;
+    await choice.open();
+    await choice.clickOptions({ text: 'GT-001 Gate motor' });
+    await (await dialog.getHarness(MatButtonHarness.with({ text: 'Switch kit type' }))).click();
+    const save = backend.expectOne('/api/lessons/lesson-1');
+    expect(save.request.method).toBe('PATCH');
+    expect(save.request.body).toEqual(
+      jasmine.objectContaining({
+        version: 3,
+        kitTypeId: GATE_KIT_ID,
+        partMap: { 'RB-010': 'GT-001' },
+        dropMissingParts: true,
+      }),
+    );
+    save.flush(lesson({ version: 4, kitType: { id: GATE_KIT_ID, name: 'Gate Builder Tub' } }));
+    backend.expectOne(`/api/kit-types/${GATE_KIT_ID}`).flush({ kitType: gateKit });
+    backend
+      .expectOne((r) => r.url === '/api/tubs' && r.params.get('kitTypeId') === GATE_KIT_ID)
+      .flush({ tubs: [] });
   });
 
   it('shows the booking conflicts the save answered beside the lesson, with a link to the other', async () => {

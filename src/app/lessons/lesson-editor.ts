@@ -64,6 +64,7 @@ import {
   lessonControls,
   SERVER_PATHS,
 } from './lesson-form';
+import { chooseKitSwitch, type MissingPart } from './kit-switch-dialog';
 import { LessonFormApi, type ReliefTeacher } from './lesson-form-api';
 import type { HasUnsavedChanges } from '../forms/unsaved-changes';
 import { plural } from '../../../shared/text/plural';
@@ -302,7 +303,44 @@ export class LessonEditor implements HasUnsavedChanges {
       this.notifier.info('Nothing has changed.');
       return;
     }
+    if (change.kitTypeId) return this.switchKit(lesson.version, change, change.kitTypeId);
     this.save(lesson.version, change);
+  }
+
+  /**
+   * A new kit type: the parts the activities use that it lacks are listed first, and the
+   * teacher maps each to a part of it or leaves it out; the lesson switches in one save.
+   */
+  private switchKit(version: number, change: Omit<LessonUpdate, 'version'>, kitId: string): void {
+    this.saving.set(true);
+    this.api.kitType(kitId).subscribe({
+      next: (kit) => {
+        this.saving.set(false);
+        const codes = new Set(kit.parts.map((p) => p.code));
+        const missing = new Map<string, MissingPart>();
+        for (const a of this.activities()) {
+          for (const m of a.materials) {
+            if (!m.partCode || codes.has(m.partCode)) continue;
+            const entry = missing.get(m.partCode) ?? {
+              code: m.partCode,
+              name: m.partName,
+              uses: [],
+            };
+            entry.uses.push(`${a.title} (${m.qty} per ${m.per})`);
+            missing.set(m.partCode, entry);
+          }
+        }
+        if (missing.size === 0) return this.save(version, change);
+        chooseKitSwitch(this.dialog, {
+          kitName: kit.name,
+          missing: [...missing.values()],
+          parts: kit.parts,
+        }).subscribe((choice) => {
+          if (choice) this.save(version, { ...change, ...choice });
+        });
+      },
+      error: (error: unknown) => this.failed(error, change),
+    });
   }
 
   private save(version: number, change: Omit<LessonUpdate, 'version'>): void {
