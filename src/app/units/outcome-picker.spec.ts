@@ -6,7 +6,7 @@ import { MatButtonHarness } from '@angular/material/button/testing';
 import { MatChipGridHarness } from '@angular/material/chips/testing';
 import { provideMarkdown } from 'ngx-markdown';
 import type { Unit } from '../../../shared/schemas/units';
-import { testProviders } from '../testing/test-providers';
+import { settleReads, testProviders } from '../testing/test-providers';
 import { UnitEditor } from './unit-editor';
 
 /** Outcome ids are UUIDs: the form validates them as `distinctIds` does. */
@@ -84,7 +84,8 @@ describe('OutcomePicker in the unit editor', () => {
     fixture.detectChanges();
     backend.expectOne('/api/units/u-1').flush(UNIT);
     backend.expectOne('/api/school/teachers').flush({ teachers: [] });
-    await fixture.whenStable();
+    // The picker's reads are resources: each is answered before the page is stable again.
+    await settleReads();
     backend.expectOne('/api/outcomes/frameworks').flush({ frameworks: [FRAMEWORK] });
     (await request(backend, '/api/outcomes?frameworkId=f-1')).flush({
       outcomes: [DT401, DT402],
@@ -96,22 +97,24 @@ describe('OutcomePicker in the unit editor', () => {
     expect(await Promise.all((await chips.getRows()).map((r) => r.getText()))).toEqual(['DT4-01']);
 
     const search = await loader.getHarness(MatAutocompleteHarness);
-    await search.enterText('steps');
+    const typed = search.enterText('steps');
     (await request(backend, '/api/outcomes?frameworkId=f-1&q=steps')).flush({
       outcomes: [DT402],
       truncated: false,
     });
+    await typed;
     await fixture.whenStable();
-    await search.selectOption({ text: /DT4-02/ });
-    expect(await Promise.all((await chips.getRows()).map((r) => r.getText()))).toEqual([
-      'DT4-01',
-      'DT4-02',
-    ]);
+    const picked = search.selectOption({ text: /DT4-02/ });
     // Clearing the search box asks for the whole framework again.
     (await request(backend, '/api/outcomes?frameworkId=f-1')).flush({
       outcomes: [],
       truncated: false,
     });
+    await picked;
+    expect(await Promise.all((await chips.getRows()).map((r) => r.getText()))).toEqual([
+      'DT4-01',
+      'DT4-02',
+    ]);
 
     await (await loader.getHarness(MatButtonHarness.with({ text: 'Save changes' }))).click();
     const req = backend.expectOne('/api/units/u-1');

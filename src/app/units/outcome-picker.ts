@@ -1,23 +1,32 @@
 import {
   ChangeDetectionStrategy,
   Component,
-  DestroyRef,
+  computed,
   inject,
   input,
+  linkedSignal,
   signal,
+  untracked,
 } from '@angular/core';
-import { takeUntilDestroyed, toObservable } from '@angular/core/rxjs-interop';
+import { toObservable, toSignal } from '@angular/core/rxjs-interop';
 import { ReactiveFormsModule, type FormControl } from '@angular/forms';
 import { MatAutocompleteModule } from '@angular/material/autocomplete';
 import { MatChipsModule } from '@angular/material/chips';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatSelectModule } from '@angular/material/select';
-import { catchError, combineLatest, debounceTime, of, switchMap } from 'rxjs';
+import { combineLatest, debounceTime } from 'rxjs';
 import type { Framework, Outcome } from '../../../shared/schemas/outcomes';
 import type { UnitOutcome } from '../../../shared/schemas/units';
 import { FieldErrorPipe } from '../forms/field-error';
+import { apiResource } from '../http/resource';
 import { UnitsApi } from './units-api';
+
+/** One page of a framework's outcomes matching the words. */
+interface SearchAnswer {
+  outcomes: Outcome[];
+  truncated: boolean;
+}
 
 /**
  * Outcomes picked from a framework: choose the framework, search its outcomes by code or words,
@@ -106,39 +115,47 @@ export class OutcomePicker {
   /** The form's control holding the chosen outcomes. */
   readonly control = input.required<FormControl<UnitOutcome[]>>();
 
-  protected readonly frameworks = signal<Framework[]>([]);
-  protected readonly frameworkId = signal<string | null>(null);
+  /** Errors are the interceptor's to show; the picker then offers nothing. */
+  private readonly frameworksRead = apiResource({ load: () => this.api.frameworks() });
+  protected readonly frameworks = computed<readonly Framework[]>(
+    () => this.frameworksRead.value() ?? [],
+  );
+  /** The framework of the unit's first outcome, else the first; then the one picked. */
+  protected readonly frameworkId = linkedSignal<readonly Framework[], string | null>({
+    source: this.frameworks,
+    computation: (list) => {
+      const used = untracked(() => this.control().value[0]?.frameworkId);
+      return list.find((f) => f.id === used)?.id ?? list[0]?.id ?? null;
+    },
+  });
   protected readonly q = signal('');
-  protected readonly options = signal<Outcome[]>([]);
-  protected readonly truncated = signal(false);
-
-  constructor() {
-    const destroyRef = inject(DestroyRef);
-    // Errors are the interceptor's to show; the picker then offers nothing.
-    this.api.frameworks().subscribe({
-      next: (list) => {
-        this.frameworks.set(list);
-        const used = this.control().value[0]?.frameworkId;
-        this.frameworkId.set(list.find((f) => f.id === used)?.id ?? list[0]?.id ?? null);
-      },
-      error: () => this.frameworks.set([]),
-    });
-    // switchMap: only the answer to the latest words counts.
-    combineLatest([toObservable(this.frameworkId), toObservable(this.q)])
-      .pipe(
-        debounceTime(200),
-        switchMap(([frameworkId, q]) =>
-          frameworkId
-            ? this.api.outcomes(frameworkId, q).pipe(catchError(() => of(null)))
-            : of({ outcomes: [], truncated: false }),
-        ),
-        takeUntilDestroyed(destroyRef),
-      )
-      .subscribe((answer) => {
-        this.options.set(answer?.outcomes ?? []);
-        this.truncated.set(answer?.truncated ?? false);
-      });
-  }
+  /** The framework and words once typing pauses. */
+  private readonly asked = toSignal(
+    combineLatest([toObservable(this.frameworkId), toObservable(this.q)]).pipe(debounceTime(200)),
+  );
+  private readonly query = computed(
+    () => {
+      const [frameworkId, q] = this.asked() ?? [null, ''];
+      return frameworkId ? { frameworkId, q } : undefined;
+    },
+    { equal: (a, b) => a?.frameworkId === b?.frameworkId && a?.q === b?.q },
+  );
+  /** Only the answer to the latest words counts (a newer search drops an older one). */
+  private readonly search = apiResource({
+    params: () => this.query(),
+    load: ({ frameworkId, q }: { frameworkId: string; q: string }) =>
+      this.api.outcomes(frameworkId, q),
+  });
+  /** The last answer, kept while the next search loads, so the open list does not close. */
+  private readonly answer = linkedSignal<
+    { value: SearchAnswer | undefined; loading: boolean },
+    SearchAnswer | undefined
+  >({
+    source: () => ({ value: this.search.value(), loading: this.search.loading() }),
+    computation: ({ value, loading }, previous) => value ?? (loading ? previous?.value : undefined),
+  });
+  protected readonly options = computed<readonly Outcome[]>(() => this.answer()?.outcomes ?? []);
+  protected readonly truncated = computed(() => this.answer()?.truncated ?? false);
 
   protected isChosen(o: Outcome): boolean {
     return this.control().value.some((c) => c.id === o.id);

@@ -12,7 +12,7 @@ import { Router } from '@angular/router';
 import { provideMarkdown } from 'ngx-markdown';
 import { firstValueFrom, isObservable, of } from 'rxjs';
 import type { Unit, UnitLesson } from '../../../shared/schemas/units';
-import { Blank, errorBody, testProviders } from '../testing/test-providers';
+import { Blank, errorBody, settleReads, testProviders } from '../testing/test-providers';
 import { UnitEditor } from './unit-editor';
 import { unsavedChangesGuard } from '../forms/unsaved-changes';
 
@@ -78,7 +78,8 @@ describe('UnitEditor', () => {
     fixture.detectChanges();
     backend.expectOne('/api/units/u-1').flush(unit());
     backend.expectOne('/api/school/teachers').flush({ teachers: [] });
-    await fixture.whenStable();
+    // The outcome picker's frameworks are a resource read, started once the form shows.
+    await settleReads();
     backend.expectOne('/api/outcomes/frameworks').flush({ frameworks: [] });
     await fixture.whenStable();
   });
@@ -272,7 +273,8 @@ describe('UnitEditor on an endorsed unit', () => {
     fixture.detectChanges();
     backend.expectOne('/api/units/u-1').flush(unit({ status: 'endorsed' }));
     backend.expectOne('/api/school/teachers').flush({ teachers: [] });
-    await fixture.whenStable();
+    // The outcome picker's frameworks are a resource read, started once the form shows.
+    await settleReads();
     backend.expectOne('/api/outcomes/frameworks').flush({ frameworks: [] });
     await fixture.whenStable();
   });
