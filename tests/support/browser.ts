@@ -44,19 +44,29 @@ export interface AxeViolation {
   nodes: { target: string[] }[];
 }
 
-/** Runs axe-core on the page; returns the serious and critical violations. */
-export async function seriousViolations(page: Page): Promise<AxeViolation[]> {
+/** axe-core's tags for the success criteria of WCAG 2.0, 2.1 and 2.2 at levels A and AA. */
+export const WCAG22_AA_TAGS = ['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa', 'wcag22aa'];
+
+/**
+ * Runs axe-core on the page; returns the serious and critical violations. With `tags`, only the
+ * rules carrying one of them run (e.g. WCAG22_AA_TAGS).
+ */
+export async function seriousViolations(page: Page, tags?: string[]): Promise<AxeViolation[]> {
   // Evaluated through the DevTools protocol, so the page's strict CSP stays as it is.
   await page.evaluate(readFileSync(require.resolve('axe-core/axe.min.js'), 'utf8'));
-  const result = (await page.evaluate(async () => {
+  const options = {
+    resultTypes: ['violations'],
+    ...(tags ? { runOnly: { type: 'tag', values: tags } } : {}),
+  };
+  const result = (await page.evaluate(async (opts) => {
     const axe = (
       window as unknown as { axe: { run: (ctx?: unknown, opts?: unknown) => Promise<unknown> } }
     ).axe;
     // axe tells an icon font's ligature ("chevron_left") from visible text only once the font
     // has loaded: run it on the page as the person sees it.
     await document.fonts.ready;
-    return axe.run(document, { resultTypes: ['violations'] });
-  })) as { violations: AxeViolation[] };
+    return axe.run(document, opts);
+  }, options)) as { violations: AxeViolation[] };
   return result.violations.filter((v) => v.impact === 'serious' || v.impact === 'critical');
 }
 

@@ -1,3 +1,4 @@
+import { ScrollRegion } from '../a11y/scroll-region';
 import {
   ChangeDetectionStrategy,
   Component,
@@ -67,6 +68,7 @@ interface DateRange {
 @Component({
   selector: 'app-kit-detail',
   imports: [
+    ScrollRegion,
     PluralPipe,
     RouterLink,
     ReactiveFormsModule,

@@ -1,3 +1,4 @@
+import { ScrollRegion } from '../a11y/scroll-region';
 import {
   ChangeDetectionStrategy,
   Component,
@@ -53,6 +54,7 @@ const wholeIn = (min: number, max: number) =>
 @Component({
   selector: 'app-parts-table',
   imports: [
+    ScrollRegion,
     ReactiveFormsModule,
     MatTableModule,
     MatSortModule,

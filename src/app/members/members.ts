@@ -1,3 +1,4 @@
+import { ScrollRegion } from '../a11y/scroll-region';
 import { DatePipe } from '@angular/common';
 import {
   ChangeDetectionStrategy,
@@ -32,6 +33,7 @@ import { MembersApi, type MemberChange } from './members-api';
 @Component({
   selector: 'app-members',
   imports: [
+    ScrollRegion,
     DatePipe,
     MatTableModule,
     MatSortModule,
