@@ -22,7 +22,6 @@ import { kitTypesRouter } from './routes/kit-types.js';
 import { tubsRouter } from './routes/tubs.js';
 import { outcomesRouter } from './routes/outcomes.js';
 import { unitsRouter } from './routes/units.js';
-import { reuseRouter } from './routes/reuse.js';
 import { lessonsRouter } from './routes/lessons.js';
 import { activitiesRouter } from './routes/activities.js';
 import { agendaRouter, conflictsRouter } from './routes/agenda.js';
@@ -80,10 +79,11 @@ function api(ctx: AppContext, options: AppOptions): express.Router {
   router.use('/kit-types', kitTypesRouter(ctx));
   router.use('/tubs', tubsRouter(ctx));
   router.use('/outcomes', outcomesRouter(ctx));
-  router.use(reviewRouter(ctx));
+  router.use('/review', reviewRouter(ctx));
+  // /coverage, /coverage.csv and /coverage.pdf: its own three paths (a mount path cannot
+  // hold the file extensions), so it is the one router without a mount path.
   router.use(coverageRouter(ctx));
   router.use('/units', unitsRouter(ctx));
-  router.use('/units', reuseRouter(ctx));
   router.use('/agenda', agendaRouter(ctx));
   router.use('/relief', reliefRouter(ctx));
   router.use('/conflicts', conflictsRouter(ctx));

@@ -1,9 +1,8 @@
 /**
- * Review: a unit's review steps and comments (under /api/units/:id), the review queue, a unit's
- * review page and the lead's summary (under /api/review). Rules in API.md, "Review and
- * coverage"; who may do what is server/auth/policy.ts through server/review/access.ts.
- *
- * Mounted at the API root, so paths are written out in full.
+ * Review: a unit's review steps and comments (`unitReviewRouter`, inside the units router at
+ * /api/units), and the review queue, a unit's review page and the lead's summary
+ * (`reviewRouter` at /api/review). Rules in API.md, "Review and coverage"; who may do what is
+ * server/auth/policy.ts through server/review/access.ts.
  */
 import { Router } from 'express';
 import type { AppContext } from '../context.js';
@@ -25,12 +24,18 @@ import { possibleSteps } from '../review/transitions.js';
 import { lessonPrepSummary } from '../review/prep-summary.js';
 import { reviewQueue, reviewSummary } from '../review/queue.js';
 
-export function reviewRouter(ctx: AppContext): Router {
-  const router = Router();
-  const snapshot = <T>(work: Parameters<typeof ctx.db.transaction<T>>[0]) =>
+/** One read-only snapshot for a read that spans several queries. */
+function snapshotOf(ctx: AppContext) {
+  return <T>(work: Parameters<typeof ctx.db.transaction<T>>[0]) =>
     ctx.db.transaction(work, { isolationLevel: 'repeatable read', accessMode: 'read only' });
+}
 
-  router.post('/units/:id/review', async (req, res) => {
+/** `/:id/review` and `/:id/comments` of a unit, mounted inside the units router. */
+export function unitReviewRouter(ctx: AppContext): Router {
+  const router = Router();
+  const snapshot = snapshotOf(ctx);
+
+  router.post('/:id/review', async (req, res) => {
     const actor = requireActor(req);
     const { id } = parseParams(idParamsSchema, req);
     const unit = await ctx.db.transaction(async (tx) => {
@@ -43,7 +48,7 @@ export function reviewRouter(ctx: AppContext): Router {
     res.json(unit);
   });
 
-  router.get('/units/:id/comments', async (req, res) => {
+  router.get('/:id/comments', async (req, res) => {
     const actor = requireActor(req);
     const { id } = parseParams(idParamsSchema, req);
     const comments = await snapshot(async (tx) => {
@@ -53,7 +58,7 @@ export function reviewRouter(ctx: AppContext): Router {
     res.json({ comments });
   });
 
-  router.post('/units/:id/comments', async (req, res) => {
+  router.post('/:id/comments', async (req, res) => {
     const actor = requireActor(req);
     const { id } = parseParams(idParamsSchema, req);
     const comment = await ctx.db.transaction(async (tx) => {
@@ -75,20 +80,28 @@ export function reviewRouter(ctx: AppContext): Router {
     res.status(201).json(comment);
   });
 
-  router.get('/review/queue', async (req, res) => {
+  return router;
+}
+
+/** The review queue, a unit's review page and the lead's summary, at /api/review. */
+export function reviewRouter(ctx: AppContext): Router {
+  const router = Router();
+  const snapshot = snapshotOf(ctx);
+
+  router.get('/queue', async (req, res) => {
     const actor = requireActor(req);
     authorize(actor, 'units.review');
     const query = parse(reviewQueueQuerySchema, req.query);
     res.json({ units: await snapshot((tx) => reviewQueue(tx, actor, query)) });
   });
 
-  router.get('/review/summary', async (req, res) => {
+  router.get('/summary', async (req, res) => {
     const actor = requireActor(req);
     authorize(actor, 'units.review');
     res.json(await snapshot((tx) => reviewSummary(tx, actor)));
   });
 
-  router.get('/review/units/:id', async (req, res) => {
+  router.get('/units/:id', async (req, res) => {
     const actor = requireActor(req);
     const { id } = parseParams(idParamsSchema, req);
     const answer = await snapshot(async (tx) => {

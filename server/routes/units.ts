@@ -2,7 +2,8 @@
  * Units: create, list ("My units" and the school's library), read, edit with a version, delete
  * with their lessons, reorder lessons, and add a lesson. Who may do what is the policy's answer
  * (server/auth/policy.ts) through server/planning/access.ts. The unit pack and prep calendar
- * (./printables.ts) are a sub-router of this one.
+ * (./printables.ts), copies and history (./reuse.ts) and review steps and comments
+ * (./review.ts) are sub-routers of this one.
  */
 import { Router } from 'express';
 import { asc, eq, inArray, sql } from 'drizzle-orm';
@@ -26,6 +27,8 @@ import { check, invalid } from '../planning/checks.js';
 import { createLesson } from '../planning/lesson-write.js';
 import { listUnits, unitDetail } from '../planning/units.js';
 import { unitPrintablesRouter } from './printables.js';
+import { reuseRouter } from './reuse.js';
+import { unitReviewRouter } from './review.js';
 import { coauthorProblems, outcomeProblems } from '../planning/unit-checks.js';
 import {
   deleteVersion,
@@ -70,6 +73,8 @@ async function mailNewCoauthors(
 export function unitsRouter(ctx: AppContext): Router {
   const router = Router();
   router.use(unitPrintablesRouter(ctx));
+  router.use(unitReviewRouter(ctx));
+  router.use(reuseRouter(ctx));
 
   router.post('/', async (req, res) => {
     const actor = requireActor(req);

@@ -364,12 +364,12 @@ const ROUTES: Route[] = [
     title: 'Copy',
     shiftDays: 7,
   }),
-  r('review.ts POST /units/:id/review', 'teacher', () => `/api/units/${ids['unit']}/review`, {
+  r('review.ts POST /:id/review', 'teacher', () => `/api/units/${ids['unit']}/review`, {
     action: 'submit',
     version: 1,
     message: 'm',
   }),
-  r('review.ts POST /units/:id/comments', 'teacher', () => `/api/units/${ids['unit']}/comments`, {
+  r('review.ts POST /:id/comments', 'teacher', () => `/api/units/${ids['unit']}/comments`, {
     body: 'Text',
     lessonId: null,
   }),
