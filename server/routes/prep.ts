@@ -11,6 +11,7 @@ import { prepTickUpdateSchema, type PrepTicks } from '../../shared/schemas/prep-
 import { notPlannable, planLesson } from '../prep/plan-lesson.js';
 import { readTicks, setTick } from '../prep/ticks.js';
 import { planTag } from '../prep/plan-tag.js';
+import { cachedPlan, keepPlan } from '../prep/plan-cache.js';
 
 /** The lesson's plan as stored now (404 when gone, 422 when the engine refuses it). */
 async function plannedLesson(tx: Tx, id: string) {
@@ -49,15 +50,30 @@ export function prepRouter(ctx: AppContext): Router {
         return;
       }
     }
-    const answer: LessonPrep = await snapshot(async (tx) => {
+    // The same tag was answered before (by anyone allowed to read it): the same answer.
+    const cached = tag ? cachedPlan(tag) : undefined;
+    if (cached) {
+      res.json(cached);
+      return;
+    }
+    const { answer, snapshotTag } = await snapshot(async (tx) => {
       const { plan, partNames, parts, input } = await plannedLesson(tx, id);
       const ticks = await readTicks(
         tx,
         id,
         plan.tasks.map((t) => t.key),
       );
-      return { ...plan, partNames, parts, controllers: groupControllers(plan, input), ticks };
+      const answer: LessonPrep = {
+        ...plan,
+        partNames,
+        parts,
+        controllers: groupControllers(plan, input),
+        ticks,
+      };
+      // Kept under the tag of this very snapshot, so an entry always matches its tag.
+      return { answer, snapshotTag: await planTag(tx, id) };
     });
+    if (snapshotTag) keepPlan(snapshotTag, answer);
     res.json(answer);
   });
 

@@ -77,6 +77,31 @@ describe('GET /api/lessons/:id/prep answers 304 for an unchanged plan', () => {
     assert.equal((await conditional(admin, '"not-this-plan"')).status, 200);
   });
 
+  // The server keeps answers by their tag (server/prep/plan-cache.ts): a kept answer must never
+  // outlive a change, whoever asks and whether or not they send If-None-Match.
+  it('an unconditional GET after a change answers the new plan, never a kept one', async () => {
+    const owner = await as(OWNER);
+    const first = await owner.get(url);
+    assert.deepEqual((await owner.get(url)).body, first.body, 'the same plan twice');
+    const sizes = (body: { groups: { size: number }[] }) => body.groups.map((g) => g.size);
+    const [row] = await t.database.db.select().from(lessons).where(eq(lessons.id, lesson.id));
+    const groupSize = row!.groupSize === 2 ? 3 : 2;
+    await t.database.db.update(lessons).set({ groupSize }).where(eq(lessons.id, lesson.id));
+    const after = await owner.get(url);
+    assert.equal(after.status, 200);
+    assert.notEqual(after.headers['etag'], first.headers['etag']);
+    assert.ok(sizes(after.body).every((s) => s <= groupSize + 1));
+    assert.notDeepEqual(sizes(after.body), sizes(first.body), 'the groups follow the new size');
+    // Put back: the first answer's tag does not come back (a new row version), the plan does.
+    await t.database.db
+      .update(lessons)
+      .set({ groupSize: row!.groupSize })
+      .where(eq(lessons.id, lesson.id));
+    const back = await owner.get(url);
+    assert.deepEqual(sizes(back.body), sizes(first.body));
+    assert.notEqual(back.headers['etag'], first.headers['etag']);
+  });
+
   it('another school gets 404 and anonymous 401, never a 304 that confirms the lesson', async () => {
     const tag = (await (await as(OWNER)).get(url)).headers['etag'] as string;
     assert.equal((await conditional(await as(OTHER_ADMIN), tag)).status, 404);
