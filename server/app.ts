@@ -25,6 +25,7 @@ import { unitsRouter } from './routes/units.js';
 import { lessonsRouter } from './routes/lessons.js';
 import { activitiesRouter } from './routes/activities.js';
 import { agendaRouter, conflictsRouter } from './routes/agenda.js';
+import { bookingsRouter } from './routes/bookings.js';
 import { reliefRouter } from './routes/relief.js';
 import { shareLinksRouter } from './routes/share-links.js';
 import { shareRouter } from './routes/share.js';
@@ -87,6 +88,7 @@ function api(ctx: AppContext, options: AppOptions): express.Router {
   router.use('/agenda', agendaRouter(ctx));
   router.use('/relief', reliefRouter(ctx));
   router.use('/conflicts', conflictsRouter(ctx));
+  router.use('/bookings', bookingsRouter(ctx));
   router.use('/share-links', shareLinksRouter(ctx));
   router.use('/share', shareRouter(ctx));
   router.use('/lessons', lessonsRouter(ctx));

@@ -49,8 +49,25 @@ function byWhenThenId(a: BookingConflict, b: BookingConflict): number {
 
 /** The lessons that double-book this lesson's tubs, earliest first, each with its message. */
 export async function bookingConflicts(tx: Tx, lessonId: string): Promise<BookingConflict[]> {
+  return (await bookingConflictsOf(tx, [lessonId])).get(lessonId) ?? [];
+}
+
+/**
+ * The same for many lessons in one query (the school-wide bookings view): each lesson id that has
+ * conflicts maps to them, earliest first; a lesson without any is absent from the map.
+ */
+export async function bookingConflictsOf(
+  tx: Tx,
+  lessonIds: readonly string[],
+): Promise<Map<string, BookingConflict[]>> {
+  const out = new Map<string, BookingConflict[]>();
+  if (lessonIds.length === 0) return out;
+  const ids = sql.join(
+    lessonIds.map((id) => sql`${id}`),
+    sql`, `,
+  );
   const result = await tx.execute(sql`
-    SELECT o.id, o.title, c.name AS class_name,
+    SELECT l.id AS of_id, o.id, o.title, c.name AS class_name,
            to_char(o.starts_at, 'YYYY-MM-DD"T"HH24:MI') AS starts_at,
            to_char(o.ends_at, 'YYYY-MM-DD"T"HH24:MI') AS ends_at,
            array_agg(DISTINCT t.label) AS tubs
@@ -60,11 +77,12 @@ export async function bookingConflicts(tx: Tx, lessonId: string): Promise<Bookin
       JOIN lessons o ON o.id = ot.lesson_id AND o.school_id = l.school_id
       JOIN classes c ON c.id = o.class_id
       JOIN tubs t ON t.id = lt.tub_id
-     WHERE l.id = ${lessonId}
+     WHERE l.id IN (${ids})
        AND o.starts_at < l.ends_at AND l.starts_at < o.ends_at
-     GROUP BY o.id, o.title, c.name, o.starts_at, o.ends_at
-     ORDER BY o.starts_at, o.id`);
+     GROUP BY l.id, o.id, o.title, c.name, o.starts_at, o.ends_at
+     ORDER BY l.id, o.starts_at, o.id`);
   const rows = result.rows as {
+    of_id: string;
     id: string;
     title: string;
     class_name: string;
@@ -72,11 +90,12 @@ export async function bookingConflicts(tx: Tx, lessonId: string): Promise<Bookin
     ends_at: string;
     tubs: string[];
   }[];
-  const conflicts = rows.map((r): BookingConflict => {
+  for (const r of rows) {
     const tubs = [...r.tubs].sort(naturalCompare);
     const startsAt = local(r.starts_at);
     const endsAt = local(r.ends_at);
-    return {
+    const list = out.get(r.of_id) ?? [];
+    list.push({
       lessonId: r.id,
       title: r.title,
       className: r.class_name,
@@ -87,7 +106,9 @@ export async function bookingConflicts(tx: Tx, lessonId: string): Promise<Bookin
         `Double-booked: ${listWords(tubs)} ${tubs.length === 1 ? 'is' : 'are'} also booked for ` +
         `“${r.title}” (${r.class_name}, ${day(startsAt)}, ${clockSpan(startsAt, endsAt)}). ` +
         'Move one lesson or book other tubs.',
-    };
-  });
-  return conflicts.sort(byWhenThenId);
+    });
+    out.set(r.of_id, list);
+  }
+  for (const list of out.values()) list.sort(byWhenThenId);
+  return out;
 }

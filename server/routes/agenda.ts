@@ -60,7 +60,7 @@ interface LessonQuery {
  * Lessons of the school in [from, to) (local dates) that the actor may read, in time order; with
  * `mine`, only those of units they author and those they cover as the relief teacher.
  */
-async function readableLessons(
+export async function readableLessons(
   tx: Tx,
   actor: Actor,
   from: string,
