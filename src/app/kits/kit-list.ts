@@ -23,6 +23,10 @@ export const KIT_EDITORS = ['admin', 'teacher'];
     <section class="page">
       <div class="heading">
         <h1>Kits</h1>
+        <a matButton="outlined" routerLink="/kits/bookings">
+          <mat-icon aria-hidden="true">event</mat-icon>
+          Bookings
+        </a>
         @if (canEdit()) {
           <button matButton="filled" type="button" (click)="create()">
             <mat-icon aria-hidden="true">add</mat-icon>

@@ -22,6 +22,7 @@ import {
   type TubSummary,
   type TubUpdate,
 } from '../../../shared/schemas/kits';
+import { bookingsResponseSchema, type BookingsResponse } from '../../../shared/schemas/bookings';
 import { schoolSettingsResponseSchema } from '../../../shared/schemas/school';
 import { callerShowsErrors } from '../errors/error-context';
 import { parseWith } from '../errors/parse';
@@ -231,6 +232,13 @@ export class KitsApi {
     return this.http
       .get('/api/conflicts', { params: { from, to } })
       .pipe(parseWith(conflictsSchema));
+  }
+
+  /** The school's tub bookings day by day over [from, to) (`to` is the day after the last). */
+  bookings(from: string, to: string): Observable<BookingsResponse> {
+    return this.http
+      .get('/api/bookings', { params: { from, to } })
+      .pipe(parseWith(bookingsResponseSchema));
   }
 
   /** The school's terms, for the default range of the conflicts. */
