@@ -1,4 +1,11 @@
-import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  computed,
+  inject,
+  input,
+  linkedSignal,
+} from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
@@ -9,6 +16,14 @@ import { listWords, plural } from '../../../shared/text/plural';
 import { addDays, mondayOf, today } from '../home/agenda-api';
 import { apiResource } from '../http/resource';
 import { KitsApi } from './kits-api';
+
+/** The text when it is a calendar date that exists (`2026-02-30` is not), else undefined. */
+function asDate(text: string | undefined): string | undefined {
+  if (!text || !/^\d{4}-\d{2}-\d{2}$/.test(text)) return undefined;
+  const [y, m, d] = text.split('-').map(Number) as [number, number, number];
+  const t = new Date(Date.UTC(y, m - 1, d));
+  return t.getUTCMonth() === m - 1 && t.getUTCDate() === d && y >= 2000 ? text : undefined;
+}
 
 /** One day as the screen shows it: a heading and its bookings in time order. */
 interface DayView {
@@ -41,6 +56,14 @@ export function conflictWords(c: Booking['conflicts'][number]): string {
   );
 }
 
+/** A booking's tubs under their kit type's name, so a name is not repeated for every tub. */
+export function tubsByKit(b: Booking): { kitTypeName: string; labels: string }[] {
+  const groups = new Map<string, string[]>();
+  for (const t of b.tubs)
+    groups.set(t.kitTypeName, [...(groups.get(t.kitTypeName) ?? []), t.label]);
+  return [...groups].map(([kitTypeName, labels]) => ({ kitTypeName, labels: labels.join(', ') }));
+}
+
 /** `/kits/bookings`: which tubs every lesson of the school books, a week at a time. */
 @Component({
   selector: 'app-bookings',
@@ -52,8 +75,10 @@ export function conflictWords(c: Booking['conflicts'][number]): string {
 export class Bookings {
   private readonly api = inject(KitsApi);
 
-  /** The Monday of the week shown; the current week first. */
-  protected readonly monday = signal(mondayOf(today()));
+  /** `?week=2026-08-04` opens on the week holding that date (a link to a week); else this week. */
+  readonly week = input<string>();
+  /** The Monday of the week shown. */
+  protected readonly monday = linkedSignal(() => mondayOf(asDate(this.week()) ?? today()));
   private readonly read = apiResource({
     params: () => this.monday(),
     load: (monday: string) => this.api.bookings(monday, addDays(monday, 7)),
@@ -85,6 +110,7 @@ export class Bookings {
   });
 
   protected readonly time = (b: Booking) => clockSpan(b.startsAt, b.endsAt);
+  protected readonly tubsByKit = tubsByKit;
   protected readonly conflictWords = conflictWords;
 
   protected previousWeek(): void {

@@ -23,16 +23,18 @@ export const KIT_EDITORS = ['admin', 'teacher'];
     <section class="page">
       <div class="heading">
         <h1>Kits</h1>
-        <a matButton="outlined" routerLink="/kits/bookings">
-          <mat-icon aria-hidden="true">event</mat-icon>
-          Bookings
-        </a>
-        @if (canEdit()) {
-          <button matButton="filled" type="button" (click)="create()">
-            <mat-icon aria-hidden="true">add</mat-icon>
-            New kit type
-          </button>
-        }
+        <div class="actions">
+          <a matButton="outlined" routerLink="/kits/bookings">
+            <mat-icon aria-hidden="true">event</mat-icon>
+            Bookings
+          </a>
+          @if (canEdit()) {
+            <button matButton="filled" type="button" (click)="create()">
+              <mat-icon aria-hidden="true">add</mat-icon>
+              New kit type
+            </button>
+          }
+        </div>
       </div>
       <p class="muted">Each kit type has a parts list; its tubs are the physical kits.</p>
       @if (loading()) {
@@ -91,6 +93,11 @@ export const KIT_EDITORS = ['admin', 'teacher'];
       h1 {
         margin: 0;
       }
+    }
+    .actions {
+      display: flex;
+      flex-wrap: wrap;
+      gap: 0.5rem;
     }
     .table-wrap {
       overflow-x: auto;
