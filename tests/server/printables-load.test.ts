@@ -1,9 +1,10 @@
 /**
  * PDF rendering runs off the event loop: a lazily started pool of worker threads (piscina),
  * running the TypeScript worker under tsx, closed by `closePdfPool()`. While four unit packs
- * render at once, `GET /api/health` still answers within 250 ms (a bound of our own choosing:
- * a quarter of a second is where a wait starts to be noticed; common practice, no published
- * source).
+ * render at once, `GET /api/health` keeps answering: every check comes back while the renders
+ * are still running (an event loop held by rendering would answer only after them). How fast it
+ * answers is a figure of `npm run bench` (health p99 while four unit packs render), never a
+ * timed test.
  */
 import { after, before, describe, it } from 'node:test';
 import assert from 'node:assert/strict';
@@ -19,8 +20,6 @@ import {
   PDF_WORKER_FILE,
   pdfPoolState,
 } from '../../server/pdf/pool.js';
-
-const HEALTH_BOUND_MS = 250;
 
 let t: TestApp;
 let teacher: Browser;
@@ -74,25 +73,18 @@ describe('the PDF worker pool', () => {
     }
   });
 
-  it(`answers GET /api/health within ${HEALTH_BOUND_MS} ms while four unit packs render`, async () => {
+  it('answers GET /api/health while four unit packs render', { timeout: 120_000 }, async () => {
     const anonymous = new Browser(t.app);
     const packs = [1, 2, 3, 4].map(() => download(teacher, `/api/units/${unitId}/pack.pdf`));
     // Wait until all four are loaded and handed to the pool: two rendering, two queued.
     await until(() => pdfPoolState().inFlight === 4, 30_000);
-    const latencies: number[] = [];
     for (let i = 0; i < 10; i++) {
-      const start = performance.now();
       const res = await anonymous.get('/api/health');
-      latencies.push(performance.now() - start);
       assert.equal(res.status, 200);
       assert.deepEqual(res.body, { status: 'ok', db: 'ok' });
     }
     // The renders were still running when the last health check came back.
     assert.ok(pdfPoolState().inFlight > 0, 'packs still rendering');
-    assert.ok(
-      Math.max(...latencies) < HEALTH_BOUND_MS,
-      `health took ${latencies.map((l) => l.toFixed(1)).join(', ')} ms`,
-    );
     for (const res of await Promise.all(packs)) {
       assert.equal(res.status, 200);
       assert.equal((res.body as Buffer).subarray(0, 5).toString(), '%PDF-');
@@ -100,12 +92,17 @@ describe('the PDF worker pool', () => {
     assert.equal(pdfPoolState().inFlight, 0);
   });
 
-  it('closes on closePdfPool() and starts again for the next file', async () => {
-    await closePdfPool();
-    assert.deepEqual(pdfPoolState(), { started: false, threads: 0, inFlight: 0 });
-    await closePdfPool();
-    const res = await download(teacher, `/api/units/${unitId}/pack.pdf`);
-    assert.equal(res.status, 200);
-    assert.equal(pdfPoolState().started, true);
-  });
+  // The timeout only guards against a hang: a unit pack on a busy machine takes seconds.
+  it(
+    'closes on closePdfPool() and starts again for the next file',
+    { timeout: 120_000 },
+    async () => {
+      await closePdfPool();
+      assert.deepEqual(pdfPoolState(), { started: false, threads: 0, inFlight: 0 });
+      await closePdfPool();
+      const res = await download(teacher, `/api/units/${unitId}/pack.pdf`);
+      assert.equal(res.status, 200);
+      assert.equal(pdfPoolState().started, true);
+    },
+  );
 });
