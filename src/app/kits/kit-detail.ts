@@ -49,6 +49,7 @@ interface StaleEdit {
 import { TubDialog, type TubDialogData } from './tub-dialog';
 import { TubFormDialog, type TubFormData } from './tub-form-dialog';
 import { PluralPipe } from '../text/words';
+import { itemTitle } from '../a11y/item-title';
 
 const DIALOG_WIDTH = 'min(32rem, calc(100vw - 2rem))';
 
@@ -102,6 +103,7 @@ export class KitDetail {
     load: (id: string) => this.api.get(id),
   });
   protected readonly kit = computed(() => this.kitRead.value() ?? null);
+  private readonly titled = itemTitle('Kit type', () => this.kit()?.name);
   protected readonly loading = this.kitRead.loading;
   protected readonly saving = signal(false);
   private readonly tubsRead = apiResource({

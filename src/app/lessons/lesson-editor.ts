@@ -70,6 +70,7 @@ import type { HasUnsavedChanges } from '../forms/unsaved-changes';
 import { plural } from '../../../shared/text/plural';
 import { clockSpan } from '../../../shared/text/clock';
 import { PluralPipe } from '../text/words';
+import { itemTitle } from '../a11y/item-title';
 
 /** A stale save: the lesson as it is now, and the change that was not saved. */
 interface Conflict {
@@ -128,6 +129,7 @@ export class LessonEditor implements HasUnsavedChanges {
   protected readonly tubStatus = TUB_STATUS_LABELS;
   protected readonly form = new FormGroup(lessonControls());
   protected readonly lesson = signal<Lesson | null>(null);
+  private readonly titled = itemTitle('Edit lesson', () => this.lesson()?.title);
   protected readonly classes = signal<SchoolClass[]>([]);
   protected readonly kitTypes = signal<KitTypeSummary[]>([]);
   protected readonly tubs = signal<TubSummary[]>([]);

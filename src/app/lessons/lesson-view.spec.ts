@@ -3,6 +3,7 @@ import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
 import { HttpTestingController } from '@angular/common/http/testing';
 import { LiveAnnouncer } from '@angular/cdk/a11y';
 import { TestBed, type ComponentFixture } from '@angular/core/testing';
+import { Title } from '@angular/platform-browser';
 import { MatButtonHarness } from '@angular/material/button/testing';
 import { MatCheckboxHarness } from '@angular/material/checkbox/testing';
 import { MatProgressBarHarness } from '@angular/material/progress-bar/testing';
@@ -103,6 +104,11 @@ describe('LessonView', () => {
     backend.expectOne('/api/lessons/lesson-2/prep').flush(workedExamplePrep(changed));
     await fixture.whenStable();
     expect(text()).not.toMatch(/Group 2 is short/);
+  });
+
+  // WCAG 2.2 SC 2.4.2 Page Titled: the title names the lesson, not only the kind of page.
+  it('names the lesson in the document title', () => {
+    expect(TestBed.inject(Title).getTitle()).toBe('Drive train · Lesson · Trayplan');
   });
 
   it('shows the lesson header in the school’s wall-clock time', () => {
@@ -232,6 +238,10 @@ describe('LessonView', () => {
         status: 404,
         statusText: 'Not Found',
       });
+    // The click may have brought focus into the window, which reads the plan again (as in the
+    // tests below): answer that read, or the page never settles.
+    for (const read of backend.match('/api/lessons/lesson-2/prep'))
+      read.flush(workedExamplePrep(workedExamplePlan()));
     await fixture.whenStable();
     expect(await loader.getAllHarnesses(MatProgressBarHarness)).toHaveSize(0);
     // A blob request's error body is not read as JSON, so the status's own message is shown.

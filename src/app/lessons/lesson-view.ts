@@ -37,6 +37,7 @@ import { TrayBoard } from './tray-board';
 import { PrepTasks } from './prep-tasks';
 import { Session } from '../auth/session';
 import { PluralPipe } from '../text/words';
+import { itemTitle } from '../a11y/item-title';
 
 type GroupsSuggestion = Extract<PrepSuggestion, { kind: 'groups' }>;
 
@@ -94,6 +95,7 @@ export class LessonView {
   protected readonly cautions = SAFETY_CAUTIONS;
   protected readonly cautionsDefer = CAUTIONS_DEFER;
   protected readonly lesson = computed(() => this.lessonRead.value() ?? null);
+  private readonly titled = itemTitle('Lesson', () => this.lesson()?.title);
   protected readonly plan = computed(() => this.planRead.value() ?? null);
   /** Names, colours and compartments of the plan's parts, as the prep answer gives them. */
   protected readonly parts = computed(

@@ -18,6 +18,7 @@ import { UnitProvenance } from './unit-provenance';
 import { UpstreamPanel } from './upstream-panel';
 import { Session } from '../auth/session';
 import { MatDialog } from '@angular/material/dialog';
+import { itemTitle } from '../a11y/item-title';
 
 /**
  * `/units/:id`: a unit's overview (Markdown, sanitised by ngx-markdown's default Angular
@@ -202,6 +203,7 @@ export class UnitDetail {
     load: (id: string) => this.api.get(id),
   });
   protected readonly unit = computed(() => this.read.value() ?? null);
+  private readonly titled = itemTitle('Unit', () => this.unit()?.title);
   protected readonly error = this.read.error;
   /** The review steps the signed-in person may take (the server decides again). */
   protected readonly steps = computed(() => {

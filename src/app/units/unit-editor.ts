@@ -59,6 +59,7 @@ import {
 import { UnitsApi } from './units-api';
 import type { HasUnsavedChanges } from '../forms/unsaved-changes';
 import { plural } from '../../../shared/text/plural';
+import { itemTitle } from '../a11y/item-title';
 
 const outcomeIdsSchema = distinctIds(300, 'outcomes');
 
@@ -117,6 +118,7 @@ export class UnitEditor implements HasUnsavedChanges {
   protected readonly overviewMax = OVERVIEW_MAX;
   /** The unit as last read from the server: the base every change is worked out against. */
   protected readonly unit = signal<Unit | null>(null);
+  private readonly titled = itemTitle('Edit unit', () => this.unit()?.title);
   protected readonly loadError = signal<string | null>(null);
   protected readonly formError = signal<string | null>(null);
   protected readonly saving = signal(false);
