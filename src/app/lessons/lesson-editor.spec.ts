@@ -269,6 +269,37 @@ describe('LessonEditor', () => {
     expect(await title.getTextErrors()).toEqual(['Enter a title.']);
   });
 
+  // WCAG 2.2 SC 1.3.1 Info and Relationships: headings go down one level at a time, so the open
+  // activity editor's "Materials" (h4) sits under its activity (h3) under "Activities" (h2).
+  it('keeps the heading levels in order with an activity open for editing', async () => {
+    await start({ id: 'lesson-1' });
+    const build: Activity = {
+      id: 'a-1',
+      lessonId: 'lesson-1',
+      version: 1,
+      position: 0,
+      title: 'Build',
+      kind: 'build',
+      minutes: 20,
+      materials: [],
+      attachments: [],
+    };
+    backend.expectOne('/api/lessons/lesson-1').flush(lesson({ activities: [build] }));
+    flushKit();
+    fixture.detectChanges();
+    await (
+      await loader.getHarness(MatButtonHarness.with({ selector: '[aria-label="Edit Build"]' }))
+    ).click();
+    fixture.detectChanges();
+    const levels = Array.from(
+      (fixture.nativeElement as HTMLElement).querySelectorAll('h1, h2, h3, h4, h5, h6'),
+    ).map((h) => Number(h.tagName[1]));
+    expect(levels).toContain(4);
+    levels.forEach((level, i) => {
+      if (i > 0) expect(level - levels[i - 1]!).toBeLessThanOrEqual(1);
+    });
+  });
+
   it('sends only the changed fields with the version, and on a 409 offers Reload or Re-apply', async () => {
     await start({ id: 'lesson-1' });
     backend.expectOne('/api/lessons/lesson-1').flush(lesson());
