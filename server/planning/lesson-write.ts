@@ -47,22 +47,8 @@ export async function createLesson(
   return lessonDetail(tx, actor, lesson!.id);
 }
 
-/** Part codes the lesson's activities use that a kit type's parts list lacks. */
-async function codesMissingFrom(tx: Tx, lessonId: string, kitTypeId: string): Promise<string[]> {
-  const used = await tx
-    .selectDistinct({ code: materials.partCode })
-    .from(materials)
-    .innerJoin(activities, eq(activities.id, materials.activityId))
-    .where(eq(activities.lessonId, lessonId));
-  const codes = await partCodesOf(tx, kitTypeId);
-  return used
-    .map((u) => u.code)
-    .filter((c): c is string => c !== null && !codes.has(c))
-    .sort();
-}
-
 /** The material lines of the lesson's activities (line id, activity id and title, part code). */
-async function linesUsing(tx: Tx, lessonId: string) {
+async function materialLines(tx: Tx, lessonId: string) {
   return tx
     .select({
       id: materials.id,
@@ -75,12 +61,14 @@ async function linesUsing(tx: Tx, lessonId: string) {
     .where(eq(activities.lessonId, lessonId));
 }
 
+type MaterialLine = Awaited<ReturnType<typeof materialLines>>[number];
+
 /** A map that would list one part twice in an activity is refused (the engine refuses it). */
-async function mergeProblems(tx: Tx, lessonId: string, map: Map<string, string>) {
+function mergeProblems(lines: readonly MaterialLine[], map: Map<string, string>) {
   if (!map.size) return [];
   const problems: { path: string; message: string }[] = [];
   const byActivity = new Map<string, { title: string; codes: string[] }>();
-  for (const l of await linesUsing(tx, lessonId)) {
+  for (const l of lines) {
     if (!l.code) continue;
     const entry = byActivity.get(l.activityId) ?? { title: l.title, codes: [] };
     entry.codes.push(map.get(l.code) ?? l.code);
@@ -100,13 +88,11 @@ async function mergeProblems(tx: Tx, lessonId: string, map: Map<string, string>)
 /** Maps and drops material lines for a new kit type; the activities changed get a new version. */
 async function switchMaterials(
   tx: Tx,
-  lessonId: string,
+  all: readonly MaterialLine[],
   map: Map<string, string>,
   drop: string[],
 ): Promise<void> {
-  const lines = (await linesUsing(tx, lessonId)).filter(
-    (l) => l.code !== null && (map.has(l.code) || drop.includes(l.code)),
-  );
+  const lines = all.filter((l) => l.code !== null && (map.has(l.code) || drop.includes(l.code)));
   for (const line of lines) {
     const to = map.get(line.code!);
     if (to) await tx.update(materials).set({ partCode: to }).where(eq(materials.id, line.id));
@@ -152,10 +138,20 @@ export async function updateLesson(
   );
   // A new kit type must hold every part the activities use, unless the save maps each missing
   // part to one of the new kit's (partMap) or leaves its lines out (dropMissingParts).
-  let switching: { map: Map<string, string>; drop: string[] } | null = null;
+  let switching: {
+    lines: MaterialLine[];
+    map: Map<string, string>;
+    drop: string[];
+  } | null = null;
   if (data?.kitTypeId && kitChanged && !details.some((d) => d.path === 'kitTypeId')) {
-    const missing = await codesMissingFrom(tx, lessonId, data.kitTypeId);
+    // Read once under the lesson's lock: the check and the switch see the same lines.
+    const lines = await materialLines(tx, lessonId);
     const newCodes = await partCodesOf(tx, data.kitTypeId);
+    const missing = [
+      ...new Set(
+        lines.map((l) => l.code).filter((c): c is string => c !== null && !newCodes.has(c)),
+      ),
+    ].sort();
     const map = new Map<string, string>();
     for (const [from, to] of Object.entries(data.partMap ?? {})) {
       if (!missing.includes(from)) continue;
@@ -177,8 +173,8 @@ export async function updateLesson(
         message: `The activities use parts that ${kit?.name ?? 'this kit type'} does not have: ${unresolved.join(', ')}. Choose a part of it for each, or leave them out.`,
       });
     }
-    details.push(...(await mergeProblems(tx, lessonId, map)));
-    switching = { map, drop: data.dropMissingParts ? unresolved : [] };
+    details.push(...mergeProblems(lines, map));
+    switching = { lines, map, drop: data.dropMissingParts ? unresolved : [] };
   }
   if (!data || details.length) throw invalid(details);
   const { version, tubIds, partMap: _map, dropMissingParts: _drop, ...fields } = data;
@@ -191,7 +187,7 @@ export async function updateLesson(
     .select({ kitTypeId: lessons.kitTypeId })
     .from(lessons)
     .where(eq(lessons.id, lessonId));
-  if (switching) await switchMaterials(tx, lessonId, switching.map, switching.drop);
+  if (switching) await switchMaterials(tx, switching.lines, switching.map, switching.drop);
   const rebook = tubIds ?? (kitChanged ? await defaultTubIds(tx, saved!.kitTypeId) : undefined);
   if (rebook) {
     await tx.delete(lessonTubs).where(eq(lessonTubs.lessonId, lessonId));
