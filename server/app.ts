@@ -32,7 +32,7 @@ import { shareRouter } from './routes/share.js';
 import { traysRouter } from './routes/trays.js';
 import { calendarFeedRouter, calendarRouter } from './routes/calendar-feed.js';
 import { reviewRouter } from './routes/review.js';
-import { coverageRouter } from './routes/coverage.js';
+import { COVERAGE_PATH, coverageHandler } from './routes/coverage.js';
 
 export const clientDir = fileURLToPath(new URL('../dist/trayplan/browser', import.meta.url));
 
@@ -81,9 +81,8 @@ function api(ctx: AppContext, options: AppOptions): express.Router {
   router.use('/tubs', tubsRouter(ctx));
   router.use('/outcomes', outcomesRouter(ctx));
   router.use('/review', reviewRouter(ctx));
-  // /coverage, /coverage.csv and /coverage.pdf: its own three paths (a mount path cannot
-  // hold the file extensions), so it is the one router without a mount path.
-  router.use(coverageRouter(ctx));
+  // /coverage, /coverage.csv and /coverage.pdf: one resource whose formats are extensions.
+  router.get(COVERAGE_PATH, coverageHandler(ctx));
   router.use('/units', unitsRouter(ctx));
   router.use('/agenda', agendaRouter(ctx));
   router.use('/relief', reliefRouter(ctx));

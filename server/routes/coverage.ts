@@ -1,9 +1,10 @@
 /**
  * Coverage: the matrix of a framework's outcomes by year level and term (JSON, CSV and a
  * landscape PDF in the school's paper size). Leads, admins and teachers; each sees the units
- * the policy lets them see. Mounted at the API root.
+ * the policy lets them see. One resource in three formats, so it is one handler on one path
+ * pattern (`COVERAGE_PATH`) rather than a router: a mount path cannot hold the file extension.
  */
-import { Router } from 'express';
+import type { Request, RequestHandler, Response } from 'express';
 import type { AppContext } from '../context.js';
 import { parse } from '../http.js';
 import { authorize } from '../auth/policy.js';
@@ -15,10 +16,11 @@ import { loadPrintContext } from '../pdf/load.js';
 import { renderForResponse } from '../pdf/respond.js';
 import { sendDownload, slug } from '../downloads.js';
 
-export function coverageRouter(ctx: AppContext): Router {
-  const router = Router();
+/** `/coverage`, `/coverage.csv` and `/coverage.pdf`; the format is the first capture. */
+export const COVERAGE_PATH = /^\/coverage(?:\.(csv|pdf))?$/;
 
-  async function load(req: Parameters<Parameters<Router['get']>[1]>[0]) {
+export function coverageHandler(ctx: AppContext): RequestHandler {
+  async function load(req: Request) {
     const actor = requireActor(req);
     authorize(actor, 'coverage.read');
     const query = parse(coverageQuerySchema, req.query);
@@ -33,11 +35,11 @@ export function coverageRouter(ctx: AppContext): Router {
     );
   }
 
-  router.get('/coverage', async (req, res) => {
+  async function json(req: Request, res: Response) {
     res.json((await load(req)).matrix);
-  });
+  }
 
-  router.get('/coverage.csv', async (req, res) => {
+  async function csv(req: Request, res: Response) {
     const { matrix } = await load(req);
     sendDownload(
       res,
@@ -45,9 +47,9 @@ export function coverageRouter(ctx: AppContext): Router {
       `coverage-${slug(matrix.framework.name)}.csv`,
       coverageCsv(matrix),
     );
-  });
+  }
 
-  router.get('/coverage.pdf', async (req, res) => {
+  async function pdf(req: Request, res: Response) {
     const { matrix, print, query } = await load(req);
     const bytes = await renderForResponse(res, {
       kind: 'coverage',
@@ -57,7 +59,10 @@ export function coverageRouter(ctx: AppContext): Router {
     });
     if (!bytes) return;
     sendDownload(res, 'application/pdf', `coverage-${slug(matrix.framework.name)}.pdf`, bytes);
-  });
+  }
 
-  return router;
+  return async (req, res) => {
+    const format = (req.params as Record<string, string | undefined>)[0];
+    await (format === 'csv' ? csv : format === 'pdf' ? pdf : json)(req, res);
+  };
 }

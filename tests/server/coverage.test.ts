@@ -242,6 +242,21 @@ describe('GET /api/coverage against an independent recount', () => {
   });
 });
 
+describe('coverage paths', () => {
+  it('answers its three formats and nothing else under the name (JSON 404 for the rest)', async () => {
+    const fw = await newFramework(['AZ-3']);
+    const lead = await as(LEAD);
+    for (const suffix of ['.txt', '.csv.pdf', '/extra', '.pdfx']) {
+      const res = await lead.get(`/api/coverage${suffix}?frameworkId=${fw.id}`);
+      assert.equal(res.status, 404, suffix);
+      assert.match(String(res.headers['content-type']), /json/, suffix);
+    }
+    const pdf = await lead.get(`/api/coverage.pdf?frameworkId=${fw.id}`);
+    assert.equal(pdf.status, 200);
+    assert.match(String(pdf.headers['content-type']), /application\/pdf/);
+  });
+});
+
 describe('GET /api/coverage.csv', () => {
   it('reads back with csv-parse (RFC 4180): header, one row per outcome, counts; formulas made text', async () => {
     // OWASP CSV Injection: cells starting with = + - @ tab or CR are prefixed with an apostrophe.
