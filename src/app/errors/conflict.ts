@@ -1,8 +1,11 @@
 import type { z } from 'zod';
 import { AppError } from './app-error';
 
-/** The 409 codes of an edit made on a stale copy (API.md): a newer version, or a changed order. */
-export type ConflictCode = 'stale-version' | 'order-changed';
+/**
+ * The 409 codes of an edit made on a stale copy (API.md): a newer version, a changed order, or a
+ * review step the unit's status no longer allows.
+ */
+export type ConflictCode = 'stale-version' | 'order-changed' | 'invalid-transition';
 
 /** A refused edit: the record as the server has it now (null when the answer did not carry it). */
 export interface StaleConflict<T> {
@@ -28,3 +31,6 @@ export function staleConflict<S extends z.ZodType>(
 
 /** For screens that also reorder children: either code means "reload, then try again". */
 export const ORDER_CONFLICTS: readonly ConflictCode[] = ['stale-version', 'order-changed'];
+
+/** For review steps: a stale version, or a status someone else has moved on meanwhile. */
+export const REVIEW_CONFLICTS: readonly ConflictCode[] = ['stale-version', 'invalid-transition'];

@@ -2,7 +2,7 @@ import { HttpTestingController } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
 import type { Coverage } from '../../../shared/schemas/review';
 import { Session } from '../auth/session';
-import { demoUser, testProviders } from '../testing/test-providers';
+import { demoUser, settleReads, testProviders } from '../testing/test-providers';
 import { CoveragePage } from './coverage';
 
 /** An invented framework and units of the invented demo school. */
@@ -59,7 +59,8 @@ async function render() {
   const fixture = TestBed.createComponent(CoveragePage);
   fixture.detectChanges();
   backend.expectOne('/api/outcomes/frameworks').flush(FRAMEWORKS);
-  await fixture.whenStable();
+  // Not whenStable: the page is not stable until the matrix read it starts has its answer.
+  await settleReads();
   const req = backend.expectOne((r) => r.url === '/api/coverage');
   expect(req.request.params.get('frameworkId')).toBe('f-1');
   expect(req.request.params.get('status')).toBe('any');

@@ -6,9 +6,9 @@ import {
   afterNextRender,
   computed,
   inject,
+  linkedSignal,
   signal,
 } from '@angular/core';
-import { takeUntilDestroyed, toObservable } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
 import { MatFormFieldModule } from '@angular/material/form-field';
@@ -16,12 +16,12 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
 import { RouterLink } from '@angular/router';
-import { catchError, filter, of, switchMap, tap } from 'rxjs';
 import type { Coverage, CoverageOutcome, CoverageUnit } from '../../../shared/schemas/review';
 import type { Framework } from '../../../shared/schemas/outcomes';
 import { UNIT_STATUS_LABELS } from '../../../shared/schemas/units';
 import { Session } from '../auth/session';
 import { saveBlob } from '../files/transfer';
+import { apiResource } from '../http/resource';
 import { YEAR_LEVELS, yearLabel } from '../units/labels';
 import { ReviewApi, type CoverageFilters } from './review-api';
 
@@ -64,18 +64,37 @@ export class CoveragePage {
 
   protected readonly yearLevels = YEAR_LEVELS;
   protected readonly statusLabels = UNIT_STATUS_LABELS;
-  protected readonly frameworks = signal<Framework[]>([]);
-  protected readonly frameworkId = signal<string | null>(null);
+  private readonly frameworksRead = apiResource({ load: () => this.api.frameworks() });
+  protected readonly frameworks = computed<Framework[]>(() => this.frameworksRead.value() ?? []);
+  /** The framework shown: the first one read, until another is chosen. */
+  protected readonly frameworkId = linkedSignal<string | null>(
+    () => this.frameworks()[0]?.id ?? null,
+  );
   protected readonly yearLevel = signal<number | null>(null);
   protected readonly scope = signal<'any' | 'endorsed'>('any');
-  protected readonly matrix = signal<Coverage | null>(null);
-  protected readonly loading = signal(true);
-  protected readonly picked = signal<Picked | null>(null);
   protected readonly downloading = signal<'csv' | 'pdf' | null>(null);
 
   private readonly filters = computed<CoverageFilters | null>(() => {
     const frameworkId = this.frameworkId();
     return frameworkId ? { frameworkId, yearLevel: this.yearLevel(), status: this.scope() } : null;
+  });
+  /** The matrix of the choices; a quick change of choices never lets an older matrix win. */
+  private readonly matrixRead = apiResource({
+    params: () => this.filters() ?? undefined,
+    load: (filters: CoverageFilters) => this.api.coverage(filters),
+  });
+  /** The matrix shown: the last one read, kept while the next loads (or if it fails to). */
+  protected readonly matrix = linkedSignal<Coverage | undefined, Coverage | null>({
+    source: this.matrixRead.value,
+    computation: (matrix, previous) => matrix ?? previous?.value ?? null,
+  });
+  protected readonly loading = computed(
+    () => this.frameworksRead.loading() || this.matrixRead.loading(),
+  );
+  /** The cell whose units are listed; other choices drop it. */
+  protected readonly picked = linkedSignal<CoverageFilters | null, Picked | null>({
+    source: this.filters,
+    computation: () => null,
   });
 
   /** The year levels of the columns, each spanning its terms. */
@@ -107,35 +126,6 @@ export class CoveragePage {
     () =>
       this.matrix()?.outcomes.filter((o) => o.cells.every((c) => c.units.length === 0)).length ?? 0,
   );
-
-  constructor() {
-    this.api
-      .frameworks()
-      .pipe(takeUntilDestroyed())
-      .subscribe({
-        next: (list) => {
-          this.frameworks.set(list);
-          if (list.length) this.frameworkId.set(list[0]!.id);
-          else this.loading.set(false);
-        },
-        error: () => this.loading.set(false),
-      });
-    // switchMap: a quick change of choices never lets an older matrix win.
-    toObservable(this.filters)
-      .pipe(
-        filter((f): f is CoverageFilters => f !== null),
-        tap(() => {
-          this.loading.set(true);
-          this.picked.set(null);
-        }),
-        switchMap((f) => this.api.coverage(f).pipe(catchError(() => of(null)))),
-        takeUntilDestroyed(),
-      )
-      .subscribe((m) => {
-        this.loading.set(false);
-        if (m) this.matrix.set(m);
-      });
-  }
 
   protected year(level: number): string {
     return yearLabel(level);

@@ -6,7 +6,7 @@ import { MatInputHarness } from '@angular/material/input/testing';
 import { provideMarkdown } from 'ngx-markdown';
 import type { UnitComment } from '../../../shared/schemas/review';
 import type { Unit } from '../../../shared/schemas/units';
-import { errorBody, testProviders } from '../testing/test-providers';
+import { errorBody, settleReads, testProviders } from '../testing/test-providers';
 import { ReviewPanel } from './review-panel';
 
 /** An invented unit of the invented demo school. */
@@ -104,8 +104,24 @@ describe('ReviewPanel', () => {
       comment: 'Ready for a look.',
     });
     req.flush({ ...UNIT, status: 'in-review', version: 6 });
+    // The step's message is kept among the comments: they are read again and it shows.
+    const step: UnitComment = {
+      id: 'c-3',
+      body: 'Ready for a look.',
+      author: { id: 'user-teacher', name: 'Jordan Pell' },
+      at: '2026-07-23T09:00:00+09:30',
+      lessonId: null,
+      step: 'submit',
+    };
+    await settleReads();
+    backend.expectOne('/api/units/u-1/comments').flush({ comments: [...COMMENTS, step] });
     await fixture.whenStable();
     expect(changed.map((u) => u.status)).toEqual(['in-review']);
+    await new Promise((resolve) => setTimeout(resolve, 50));
+    fixture.detectChanges();
+    const el = fixture.nativeElement as HTMLElement;
+    expect(el.querySelectorAll('.comments .body').length).toBe(3);
+    expect(el.textContent).toContain('Ready for a look.');
   });
 
   it('asks what should change before requesting changes, and sends nothing without it', async () => {
@@ -132,6 +148,9 @@ describe('ReviewPanel', () => {
       },
       { status: 409, statusText: 'Conflict' },
     );
+    // Whoever moved the unit on may have commented: the comments are read again.
+    await settleReads();
+    backend.expectOne('/api/units/u-1/comments').flush({ comments: COMMENTS });
     await fixture.whenStable();
     fixture.detectChanges();
     expect(el.textContent).toContain('cannot be endorsed');

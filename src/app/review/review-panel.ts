@@ -2,7 +2,6 @@ import {
   ChangeDetectionStrategy,
   Component,
   computed,
-  effect,
   inject,
   input,
   output,
@@ -19,8 +18,9 @@ import {
   type UnitComment,
 } from '../../../shared/schemas/review';
 import { UNIT_STATUS_LABELS, unitSchema, type Unit } from '../../../shared/schemas/units';
-import { AppError } from '../errors/app-error';
+import { REVIEW_CONFLICTS, staleConflict } from '../errors/conflict';
 import { Notifier } from '../errors/notifier';
+import { apiResource } from '../http/resource';
 import { ReviewApi } from './review-api';
 import { CommentList } from './comment-list';
 import { STEP_BUTTONS, STEP_NOTES } from './review-labels';
@@ -128,8 +128,16 @@ export class ReviewPanel {
 
   protected readonly statusLabels = UNIT_STATUS_LABELS;
   protected readonly buttons = STEP_BUTTONS;
-  protected readonly all = signal<UnitComment[]>([]);
-  protected readonly loaded = signal(false);
+  /** The unit's comments, read again after a step (a step's comment joins them). */
+  private readonly read = apiResource({
+    params: () => this.unit().id,
+    load: (id: string) => this.api.comments(id),
+  });
+  protected readonly comments = computed<readonly UnitComment[]>(() => this.read.value() ?? []);
+  /** Whether the first read has answered (a failed one too: the box still works). */
+  protected readonly loaded = computed(
+    () => this.read.value() !== undefined || this.read.error() !== null,
+  );
   protected readonly busy = signal(false);
   protected readonly error = signal<string | null>(null);
   protected readonly textError = signal<string | null>(null);
@@ -145,24 +153,9 @@ export class ReviewPanel {
       return 'Reopen returns the unit to draft, so it can be changed and sent for review again.';
     return null;
   });
-  protected readonly comments = this.all.asReadonly();
 
   protected readonly text = new FormControl('', { nonNullable: true });
   protected readonly about = new FormControl<string | null>(null);
-
-  constructor() {
-    effect(() => this.load(this.unit().id));
-  }
-
-  private load(id: string): void {
-    this.api.comments(id).subscribe({
-      next: (list) => {
-        this.all.set(list);
-        this.loaded.set(true);
-      },
-      error: () => this.loaded.set(true),
-    });
-  }
 
   /**
    * The comment box's text when valid (undefined when empty and not required), else null with
@@ -189,7 +182,7 @@ export class ReviewPanel {
     this.api.comment(this.unit().id, body, lessonId).subscribe({
       next: (c) => {
         this.busy.set(false);
-        this.all.update((list) => [...list, c]);
+        this.read.set([...this.comments(), c]);
         this.text.reset('');
       },
       error: (e: unknown) => {
@@ -215,15 +208,20 @@ export class ReviewPanel {
         this.notifier.info(
           `${STEP_NOTES[action][0]!.toUpperCase()}${STEP_NOTES[action].slice(1)}.`,
         );
-        // The parent shows the new unit; the comments reload with it (the effect above).
+        // The parent shows the new unit; the step's comment is read with the others.
         this.changed.emit(updated);
+        this.read.refresh();
       },
       error: (e: unknown) => {
         this.busy.set(false);
         this.error.set(e instanceof Error ? e.message : 'Not saved.');
-        // A 409 carries the unit as it now is: show that, so the buttons match its status.
-        const current = e instanceof AppError ? unitSchema.safeParse(e.current) : null;
-        if (current?.success) this.changed.emit(current.data);
+        // A 409 carries the unit as it now is: show that, so the buttons match its status, and
+        // the comments of whoever moved it on.
+        const current = staleConflict(e, unitSchema, REVIEW_CONFLICTS)?.current;
+        if (current) {
+          this.changed.emit(current);
+          this.read.refresh();
+        }
       },
     });
   }

@@ -3,7 +3,7 @@ import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
 import { TestBed } from '@angular/core/testing';
 import { MatSelectHarness } from '@angular/material/select/testing';
 import type { QueueRow } from '../../../shared/schemas/review';
-import { testProviders } from '../testing/test-providers';
+import { settleReads, testProviders } from '../testing/test-providers';
 import { ReviewQueue } from './review-queue';
 
 /** Invented units of the invented demo school, oldest first as the server sends them. */
@@ -62,9 +62,12 @@ describe('ReviewQueue', () => {
       MatSelectHarness.with({ selector: '.filters mat-form-field:nth-child(2) mat-select' }),
     );
     await year.open();
-    await year.clickOptions({ text: 'Year 6' });
+    // The harness waits for the page to be stable, which a read is not until its answer arrives.
+    const clicked = year.clickOptions({ text: 'Year 6' });
+    await settleReads();
     const again = backend.expectOne((r) => r.url === '/api/review/queue');
     expect(again.request.params.get('yearLevel')).toBe('6');
     again.flush({ units: [ROWS[0]] });
+    await clicked;
   });
 });

@@ -1,5 +1,11 @@
-import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
-import { takeUntilDestroyed, toObservable } from '@angular/core/rxjs-interop';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  computed,
+  inject,
+  linkedSignal,
+  signal,
+} from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
@@ -7,8 +13,8 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
 import { MatTableModule } from '@angular/material/table';
 import { RouterLink } from '@angular/router';
-import { catchError, of, switchMap, tap } from 'rxjs';
 import type { QueueRow } from '../../../shared/schemas/review';
+import { apiResource } from '../http/resource';
 import { TERMS, YEAR_LEVELS, yearLabel } from '../units/labels';
 import { ReviewApi, type QueueFilters } from './review-api';
 
@@ -178,27 +184,22 @@ export class ReviewQueue {
   protected readonly status = signal<QueueFilters['status']>('in-review');
   protected readonly yearLevel = signal<number | null>(null);
   protected readonly term = signal<number | null>(null);
-  protected readonly rows = signal<QueueRow[]>([]);
-  protected readonly loading = signal(true);
   private readonly filters = computed<QueueFilters>(() => ({
     status: this.status(),
     yearLevel: this.yearLevel(),
     term: this.term(),
   }));
-
-  constructor() {
-    // switchMap: a quick change of filters never lets an older answer win.
-    toObservable(this.filters)
-      .pipe(
-        tap(() => this.loading.set(true)),
-        switchMap((f) => this.api.queue(f).pipe(catchError(() => of(null)))),
-        takeUntilDestroyed(),
-      )
-      .subscribe((rows) => {
-        this.loading.set(false);
-        if (rows) this.rows.set(rows);
-      });
-  }
+  /** The queue of the filters; a quick change of filters never lets an older answer win. */
+  private readonly read = apiResource({
+    params: () => this.filters(),
+    load: (filters: QueueFilters) => this.api.queue(filters),
+  });
+  protected readonly loading = this.read.loading;
+  /** The rows shown: the last ones read, kept while the next load runs (or if it fails). */
+  protected readonly rows = linkedSignal<QueueRow[] | undefined, QueueRow[]>({
+    source: this.read.value,
+    computation: (rows, previous) => rows ?? previous?.value ?? [],
+  });
 
   protected year(level: number): string {
     return yearLabel(level);

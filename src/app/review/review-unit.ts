@@ -2,18 +2,18 @@ import {
   ChangeDetectionStrategy,
   Component,
   ElementRef,
-  effect,
+  computed,
   inject,
   input,
-  signal,
 } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { RouterLink } from '@angular/router';
 import { MarkdownComponent } from 'ngx-markdown';
-import type { LessonPrepSummary, ReviewUnit } from '../../../shared/schemas/review';
+import type { LessonPrepSummary } from '../../../shared/schemas/review';
 import { UNIT_STATUS_LABELS } from '../../../shared/schemas/units';
+import { apiResource } from '../http/resource';
 import { dayLabel } from '../lessons/clock';
 import { yearLabel } from '../units/labels';
 import { ReviewApi } from './review-api';
@@ -155,24 +155,16 @@ export class ReviewUnitPage {
   readonly id = input.required<string>();
 
   protected readonly statusLabels = UNIT_STATUS_LABELS;
-  protected readonly data = signal<ReviewUnit | null>(null);
-  protected readonly error = signal<string | null>(null);
-
-  constructor() {
-    effect(() => this.load(this.id()));
-  }
-
-  private load(id: string): void {
-    this.error.set(null);
-    this.api.unit(id).subscribe({
-      next: (d) => this.data.set(d),
-      error: (e: unknown) => this.error.set(e instanceof Error ? e.message : 'Not loaded.'),
-    });
-  }
+  private readonly read = apiResource({
+    params: () => this.id(),
+    load: (id: string) => this.api.unit(id),
+  });
+  protected readonly data = computed(() => this.read.value() ?? null);
+  protected readonly error = this.read.error;
 
   /** After a step the buttons change with the status: read the unit again. */
   protected reload(): void {
-    this.load(this.id());
+    this.read.reload();
   }
 
   protected toDecision(): void {

@@ -92,8 +92,8 @@ describe('UnitDetail', () => {
     backend.expectOne('/api/units/u-1').flush(UNIT);
     await settleReads();
     backend.expectOne('/api/units/u-1/history').flush(HISTORY);
-    await fixture.whenStable();
     backend.expectOne('/api/units/u-1/comments').flush({ comments: [] });
+    await fixture.whenStable();
     await new Promise((resolve) => setTimeout(resolve, 50));
     fixture.detectChanges();
     const el = fixture.nativeElement as HTMLElement;
@@ -182,7 +182,7 @@ describe('UnitDetail', () => {
     const req = backend.expectOne('/api/units/u-1/review');
     expect(req.request.body).toEqual({ action: 'submit', version: 2 });
     req.flush({ ...UNIT, status: 'in-review', version: 3 });
-    await fixture.whenStable();
+    await settleReads();
     backend.expectOne('/api/units/u-1/comments').flush({ comments: [] });
     await fixture.whenStable();
     expect((fixture.nativeElement as HTMLElement).querySelector('.status')?.textContent).toBe(
@@ -211,8 +211,9 @@ describe('UnitDetail', () => {
       backend.expectOne('/api/units/u-1').flush(UNIT);
       await settleReads();
       backend.expectOne('/api/units/u-1/history').flush(HISTORY);
-      await fixture.whenStable();
+      await settleReads();
       backend.expectOne('/api/units/u-1/comments').flush({ comments: [] });
+      await fixture.whenStable();
       // saveBlob hands the file to the browser through a link's `download` name: watch that link.
       saved = [];
       let lastBlob: Blob | null = null;
