@@ -6,7 +6,9 @@ import {
   effect,
   inject,
   input,
+  linkedSignal,
   signal,
+  untracked,
 } from '@angular/core';
 import { takeUntilDestroyed } from '@angular/core/rxjs-interop';
 import { moveItemInArray, type CdkDragDrop, DragDropModule } from '@angular/cdk/drag-drop';
@@ -42,6 +44,7 @@ import { AppError } from '../errors/app-error';
 import { ORDER_CONFLICTS, staleConflict } from '../errors/conflict';
 import { Notifier } from '../errors/notifier';
 import { FieldErrorPipe } from '../forms/field-error';
+import { apiResource } from '../http/resource';
 import { formErrorMessage } from '../forms/server-errors';
 import { zodValidator } from '../forms/validators';
 import { clockTime, dayLabel } from '../lessons/clock';
@@ -116,16 +119,25 @@ export class UnitEditor implements HasUnsavedChanges {
   readonly id = input.required<string>();
 
   protected readonly overviewMax = OVERVIEW_MAX;
-  /** The unit as last read from the server: the base every change is worked out against. */
-  protected readonly unit = signal<Unit | null>(null);
+  private readonly read = apiResource({
+    params: () => this.id(),
+    load: (id: string) => this.api.get(id),
+  });
+  /**
+   * The unit as last read or saved: the base every change is worked out against (a save's answer
+   * replaces it without a new read).
+   */
+  protected readonly unit = linkedSignal<Unit | null>(() => this.read.value() ?? null);
   private readonly titled = itemTitle('Edit unit', () => this.unit()?.title);
-  protected readonly loadError = signal<string | null>(null);
+  protected readonly loadError = this.read.error;
   protected readonly formError = signal<string | null>(null);
   protected readonly saving = signal(false);
   protected readonly conflict = signal<Conflict | null>(null);
   /** The lessons as shown (moved at once; put back if the server refuses the order). */
-  protected readonly lessons = signal<UnitLesson[]>([]);
-  protected readonly teachers = signal<PersonRef[]>([]);
+  protected readonly lessons = linkedSignal<UnitLesson[]>(() => this.unit()?.lessons ?? []);
+  /** Names for the co-author list; without them only the current co-authors are offered. */
+  private readonly teachersRead = apiResource({ load: () => this.api.teachers() });
+  protected readonly teachers = computed<PersonRef[]>(() => this.teachersRead.value() ?? []);
   private readonly draft = signal<UnitDraft | null>(null);
   private leaving = false;
 
@@ -166,19 +178,10 @@ export class UnitEditor implements HasUnsavedChanges {
     this.form.valueChanges
       .pipe(takeUntilDestroyed(inject(DestroyRef)))
       .subscribe(() => this.draft.set(this.readDraft()));
+    // A unit read (the first, or another id's) becomes the form's base.
     effect(() => {
-      const id = this.id();
-      this.unit.set(null);
-      this.loadError.set(null);
-      this.api.get(id).subscribe({
-        next: (unit) => this.show(unit),
-        error: (e: unknown) => this.loadError.set(e instanceof Error ? e.message : 'Not loaded.'),
-      });
-    });
-    // Names for the co-author list; without them only the current co-authors are offered.
-    this.api.teachers().subscribe({
-      next: (list) => this.teachers.set(list),
-      error: () => this.teachers.set([]),
+      const loaded = this.read.value();
+      if (loaded) untracked(() => this.show(loaded));
     });
   }
 
@@ -299,10 +302,7 @@ export class UnitEditor implements HasUnsavedChanges {
   private sendOrder(unit: Unit, lessonIds: string[]): void {
     this.api.reorder(unit.id, { version: unit.version, lessonIds }).subscribe({
       // Only the order and version changed: the form keeps whatever is being edited.
-      next: (saved) => {
-        this.unit.set(saved);
-        this.lessons.set(saved.lessons);
-      },
+      next: (saved) => this.unit.set(saved),
       error: (error: unknown) => {
         this.lessons.set(unit.lessons);
         this.failed(error, unit, { kind: 'order', lessonIds });
@@ -340,7 +340,6 @@ export class UnitEditor implements HasUnsavedChanges {
   private show(unit: Unit): void {
     this.conflict.set(null);
     this.unit.set(unit);
-    this.lessons.set(unit.lessons);
     const draft = draftOf(unit);
     this.form.reset({ ...draft, outcomes: unit.outcomes, coauthorIds: [...draft.coauthorIds] });
     if (unit.isOwner) this.form.controls.coauthorIds.enable();
