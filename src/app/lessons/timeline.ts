@@ -1,5 +1,6 @@
 import { ChangeDetectionStrategy, Component, input } from '@angular/core';
 import type { PrepSegment, PrepTimeline } from '../../../shared/prep/index';
+import { ScrollRegion } from '../a11y/scroll-region';
 import { clockTime } from './clock';
 
 const KIND_LABELS: Record<PrepSegment['kind'], string> = {
@@ -16,6 +17,7 @@ const KIND_LABELS: Record<PrepSegment['kind'], string> = {
  */
 @Component({
   selector: 'app-timeline',
+  imports: [ScrollRegion],
   template: `
     @let t = timeline();
     <p class="summary">
@@ -28,7 +30,9 @@ const KIND_LABELS: Record<PrepSegment['kind'], string> = {
       Pack-away starts at <strong>{{ clock(t.packAwayStartsAt) }}</strong> ({{ t.packAwayMinutes }}
       min).
     </p>
-    <div class="bar-wrap">
+    <!-- A bar of time needs its two dimensions (WCAG 2.2 SC 1.4.10's exception): where it is wider
+         than the page it scrolls sideways, as a named region the keyboard reaches. -->
+    <div class="bar-wrap" appScrollRegion="Lesson timeline (scrolls sideways)">
       <ol class="bar" aria-label="Lesson timeline">
         @for (segment of t.segments; track $index) {
           <li

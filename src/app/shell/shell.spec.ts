@@ -44,6 +44,15 @@ describe('Shell', () => {
     expect(header?.textContent).toContain('Robin Ashdown');
   });
 
+  it('has one navigation landmark, named Main (WCAG 2.2 SC 1.3.1, SC 2.4.1)', async () => {
+    const { harness } = await render('teacher');
+    const root = harness.fixture.nativeElement as HTMLElement;
+    // A landmark is a <nav> element or anything with role="navigation" (WAI-ARIA 1.2).
+    const landmarks = Array.from(root.querySelectorAll('nav, [role="navigation"]'));
+    expect(landmarks.length).toBe(1);
+    expect(landmarks[0].getAttribute('aria-label')).toBe('Main');
+  });
+
   it("lists a teacher's areas in the navigation", async () => {
     const { loader } = await render('teacher');
     expect(await navLabels(loader)).toEqual(['Home', 'Units', 'Kits', 'Classes', 'Coverage']);
