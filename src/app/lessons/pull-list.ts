@@ -2,6 +2,7 @@ import { ChangeDetectionStrategy, Component, computed, input } from '@angular/co
 import { MatTableModule } from '@angular/material/table';
 import type { PrepBorrow, PrepLine } from '../../../shared/prep/index';
 import type { Part } from '../../../shared/schemas/kits';
+import { ScrollRegion } from '../a11y/scroll-region';
 
 /** What a pull list shows of a part: its name, and its colour and compartment when known. */
 export type PartInfo = Pick<Part, 'name'> & Partial<Pick<Part, 'colour' | 'compartment'>>;
@@ -25,9 +26,9 @@ export interface PullRow {
  */
 @Component({
   selector: 'app-pull-list',
-  imports: [MatTableModule],
+  imports: [MatTableModule, ScrollRegion],
   template: `
-    <div class="table-wrap">
+    <div class="table-wrap" [appScrollRegion]="caption() + ' (scrolls sideways)'">
       <table mat-table [dataSource]="rows()">
         <caption class="visually-hidden">
           {{
@@ -36,29 +37,37 @@ export interface PullRow {
         </caption>
         <ng-container matColumnDef="part">
           <th mat-header-cell *matHeaderCellDef>Part</th>
-          <td mat-cell *matCellDef="let row">
+          <td mat-cell *matCellDef="let row" class="title">
             {{ row.name }} <span class="muted code">{{ row.code }}</span>
           </td>
         </ng-container>
         <ng-container matColumnDef="colour">
           <th mat-header-cell *matHeaderCellDef>Colour</th>
-          <td mat-cell *matCellDef="let row">{{ row.colour }}</td>
+          <td mat-cell *matCellDef="let row" data-label="Colour">
+            {{ row.colour }}
+          </td>
         </ng-container>
         <ng-container matColumnDef="compartment">
           <th mat-header-cell *matHeaderCellDef>Compartment</th>
-          <td mat-cell *matCellDef="let row">{{ row.compartment }}</td>
+          <td mat-cell *matCellDef="let row" data-label="Compartment">
+            {{ row.compartment }}
+          </td>
         </ng-container>
         <ng-container matColumnDef="quantity">
           <th mat-header-cell *matHeaderCellDef>Quantity</th>
-          <td mat-cell *matCellDef="let row" [class.short]="row.short">{{ row.quantity }}</td>
+          <td mat-cell *matCellDef="let row" [class.short]="row.short" data-label="Quantity">
+            {{ row.quantity }}
+          </td>
         </ng-container>
         <ng-container matColumnDef="from">
           <th mat-header-cell *matHeaderCellDef>From</th>
-          <td mat-cell *matCellDef="let row">
-            {{ row.from }}
-            @if (row.borrow) {
-              <span class="borrow">{{ row.borrow }}</span>
-            }
+          <td mat-cell *matCellDef="let row" data-label="From">
+            <span>
+              {{ row.from }}
+              @if (row.borrow) {
+                <span class="borrow">{{ row.borrow }}</span>
+              }
+            </span>
           </td>
         </ng-container>
         <tr mat-header-row *matHeaderRowDef="columns"></tr>
