@@ -6,7 +6,7 @@ import { MatButtonHarness } from '@angular/material/button/testing';
 import { MatDialogHarness } from '@angular/material/dialog/testing';
 import { provideMarkdown } from 'ngx-markdown';
 import type { Activity, Lesson } from '../../../shared/schemas/lessons';
-import { Blank, testProviders } from '../testing/test-providers';
+import { Blank, settleReads, testProviders } from '../testing/test-providers';
 import { LessonEditor } from './lesson-editor';
 
 /*
@@ -89,8 +89,12 @@ describe('LessonEditor focus and announcements', () => {
     await settle();
   }
 
-  /** The kit's parts and tubs are read for the lesson's kit type; their content plays no part. */
-  function flushKit(): void {
+  /**
+   * The kit's parts and tubs are read for the lesson's kit type once the lesson is shown (its
+   * answer taken first); their content plays no part.
+   */
+  async function flushKit(): Promise<void> {
+    await settleReads();
     backend
       .match((r) => r.url.startsWith('/api/kit-types/') || r.url === '/api/tubs')
       .forEach((r) =>
@@ -146,12 +150,12 @@ describe('LessonEditor focus and announcements', () => {
     });
     backend.expectOne('/api/relief/teachers').flush({ teachers: [] });
     backend.expectOne('/api/lessons/lesson-1').flush(lesson());
-    flushKit();
+    await flushKit();
     await settle();
   });
 
-  afterEach(() => {
-    flushKit();
+  afterEach(async () => {
+    await flushKit();
     backend.verify();
   });
 
@@ -190,8 +194,7 @@ describe('LessonEditor focus and announcements', () => {
     backend
       .expectOne('/api/lessons/lesson-1')
       .flush(lesson({ version: 4, title: 'Build and test the rover' }));
-    await settle();
-    flushKit();
+    await flushKit();
     await settle();
     expect(active()?.matches('.save-lesson')).toBeTrue();
   });
@@ -214,10 +217,13 @@ describe('LessonEditor focus and announcements', () => {
     ].find((b) => b.textContent?.trim() === 'Close')!;
     close.focus();
     close.click();
-    await settle();
+    // Not whenStable: the page waits for the lesson read that closing starts.
+    fixture.detectChanges();
+    await settleReads();
     expect(active()?.matches('[data-activity="activity-2"] .edit-activity')).toBeTrue();
     // Closing reads the lesson again; focus stays put when it arrives.
     backend.expectOne('/api/lessons/lesson-1').flush(lesson());
+    await flushKit();
     await settle();
     expect(active()?.matches('[data-activity="activity-2"] .edit-activity')).toBeTrue();
   });
@@ -232,10 +238,12 @@ describe('LessonEditor focus and announcements', () => {
     const req = backend.expectOne((r) => r.url === '/api/activities/activity-2');
     expect(req.request.method).toBe('DELETE');
     req.flush(null, { status: 204, statusText: 'No Content' });
-    await settle();
+    fixture.detectChanges();
+    await settleReads();
     backend
       .expectOne('/api/lessons/lesson-1')
       .flush(lesson({ activities: [ACTIVITIES[0]!, ACTIVITIES[2]!] }));
+    await flushKit();
     await settle();
     // The dialog's own focus restoration (to the removed Delete button) must not win.
     await new Promise((resolve) => setTimeout(resolve, 300));

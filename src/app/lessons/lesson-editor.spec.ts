@@ -13,7 +13,13 @@ import type { TubSummary } from '../../../shared/schemas/kits';
 import { MatDialogHarness } from '@angular/material/dialog/testing';
 import type { Activity, Lesson } from '../../../shared/schemas/lessons';
 import type { Unit } from '../../../shared/schemas/units';
-import { Blank, errorBody, settleReads, testProviders } from '../testing/test-providers';
+import {
+  answerWhenAsked,
+  Blank,
+  errorBody,
+  settleReads,
+  testProviders,
+} from '../testing/test-providers';
 import { LessonEditor } from './lesson-editor';
 
 // Invented demo records; ids are valid UUIDs because the form checks them as the schema does.
@@ -176,9 +182,12 @@ describe('LessonEditor', () => {
     }
   }
 
-  /** Answers the kit type's parts list and tubs (one of them retired). */
-  function flushKit(): void {
-    backend.expectOne(`/api/kit-types/${KIT_ID}`).flush({
+  /**
+   * Answers the kit type's parts list and tubs (one of them retired), read once the lesson or
+   * the kit type chosen is shown.
+   */
+  async function flushKit(): Promise<void> {
+    await answerWhenAsked(backend, `/api/kit-types/${KIT_ID}`, {
       kitType: {
         id: KIT_ID,
         name: 'Rover Builder Tub',
@@ -220,8 +229,8 @@ describe('LessonEditor', () => {
     await start({ unit: 'unit-1' });
     await (await input('Lesson title')).setValue('Build the rover');
     await select('Class', /4K/);
-    await select('Kit type', 'Rover Builder Tub');
-    flushKit();
+    // The harness waits for the kit's reads the choice starts: answer them meanwhile.
+    await Promise.all([select('Kit type', 'Rover Builder Tub'), flushKit()]);
     fixture.detectChanges();
     const boxes = await loader.getAllHarnesses(MatCheckboxHarness);
     expect(await Promise.all(boxes.map((b) => b.isChecked()))).toEqual([true, true, false]);
@@ -285,7 +294,7 @@ describe('LessonEditor', () => {
       attachments: [],
     };
     backend.expectOne('/api/lessons/lesson-1').flush(lesson({ activities: [build] }));
-    flushKit();
+    await flushKit();
     fixture.detectChanges();
     await (
       await loader.getHarness(MatButtonHarness.with({ selector: '[aria-label="Edit Build"]' }))
@@ -303,7 +312,7 @@ describe('LessonEditor', () => {
   it('sends only the changed fields with the version, and on a 409 offers Reload or Re-apply', async () => {
     await start({ id: 'lesson-1' });
     backend.expectOne('/api/lessons/lesson-1').flush(lesson());
-    flushKit();
+    await flushKit();
     fixture.detectChanges();
     await (await input('Lesson title')).setValue('Build and test the rover');
     expect(fixture.componentInstance.hasUnsavedChanges()).toBeTrue();
@@ -327,7 +336,7 @@ describe('LessonEditor', () => {
     const second = backend.expectOne('/api/lessons/lesson-1');
     expect(second.request.body).toEqual({ version: 4, title: 'Build and test the rover' });
     second.flush(lesson({ version: 5, groupSize: 4, title: 'Build and test the rover' }));
-    flushKit();
+    await flushKit();
     expect(fixture.componentInstance.hasUnsavedChanges()).toBeFalse();
   });
 
@@ -359,7 +368,7 @@ describe('LessonEditor', () => {
       attachments: [],
     };
     backend.expectOne('/api/lessons/lesson-1').flush(lesson({ activities: [build] }));
-    flushKit();
+    await flushKit();
     fixture.detectChanges();
     const gateKit = {
       id: GATE_KIT_ID,
@@ -385,11 +394,13 @@ describe('LessonEditor', () => {
         },
       ],
     };
-    await select('Kit type', 'Gate Builder Tub');
-    backend.expectOne(`/api/kit-types/${GATE_KIT_ID}`).flush({ kitType: gateKit });
-    backend
-      .expectOne((r) => r.url === '/api/tubs' && r.params.get('kitTypeId') === GATE_KIT_ID)
-      .flush({ tubs: [] });
+    const flushGateKit = async () => {
+      await answerWhenAsked(backend, `/api/kit-types/${GATE_KIT_ID}`, { kitType: gateKit });
+      backend
+        .expectOne((r) => r.url === '/api/tubs' && r.params.get('kitTypeId') === GATE_KIT_ID)
+        .flush({ tubs: [] });
+    };
+    await Promise.all([select('Kit type', 'Gate Builder Tub'), flushGateKit()]);
     await (await loader.getHarness(MatButtonHarness.with({ text: 'Save lesson' }))).click();
     backend.expectOne(`/api/kit-types/${GATE_KIT_ID}`).flush({ kitType: gateKit });
     fixture.detectChanges();
@@ -417,16 +428,13 @@ describe('LessonEditor', () => {
       }),
     );
     save.flush(lesson({ version: 4, kitType: { id: GATE_KIT_ID, name: 'Gate Builder Tub' } }));
-    backend.expectOne(`/api/kit-types/${GATE_KIT_ID}`).flush({ kitType: gateKit });
-    backend
-      .expectOne((r) => r.url === '/api/tubs' && r.params.get('kitTypeId') === GATE_KIT_ID)
-      .flush({ tubs: [] });
+    await flushGateKit();
   });
 
   it('shows the booking conflicts the save answered beside the lesson, with a link to the other', async () => {
     await start({ id: 'lesson-1' });
     backend.expectOne('/api/lessons/lesson-1').flush(lesson());
-    flushKit();
+    await flushKit();
     fixture.detectChanges();
     await (await input('Lesson title')).setValue('Build it twice');
     await (await loader.getHarness(MatButtonHarness.with({ text: 'Save lesson' }))).click();
@@ -450,7 +458,7 @@ describe('LessonEditor', () => {
         ],
       }),
     );
-    flushKit();
+    await flushKit();
     fixture.detectChanges();
     const box = (fixture.nativeElement as HTMLElement).querySelector('.booking-conflicts');
     expect(box?.getAttribute('role')).toBe('alert');
@@ -461,7 +469,7 @@ describe('LessonEditor', () => {
   it('Reload after a 409 shows the lesson as it is now', async () => {
     await start({ id: 'lesson-1' });
     backend.expectOne('/api/lessons/lesson-1').flush(lesson());
-    flushKit();
+    await flushKit();
     await (await input('Lesson title')).setValue('My title');
     await (await loader.getHarness(MatButtonHarness.with({ text: 'Save lesson' }))).click();
     backend.expectOne('/api/lessons/lesson-1').flush(
@@ -474,8 +482,8 @@ describe('LessonEditor', () => {
       },
       { status: 409, statusText: 'Conflict' },
     );
-    await (await loader.getHarness(MatButtonHarness.with({ text: 'Reload' }))).click();
-    flushKit();
+    const reload = await loader.getHarness(MatButtonHarness.with({ text: 'Reload' }));
+    await Promise.all([reload.click(), flushKit()]);
     expect(await (await input('Lesson title')).getValue()).toBe('Their title');
     expect(fixture.componentInstance.hasUnsavedChanges()).toBeFalse();
   });
@@ -483,7 +491,7 @@ describe('LessonEditor', () => {
   it('shows server details under their fields (startsAt under Starts)', async () => {
     await start({ id: 'lesson-1' });
     backend.expectOne('/api/lessons/lesson-1').flush(lesson());
-    flushKit();
+    await flushKit();
     await (await input('Starts')).setValue('11:20');
     await (await loader.getHarness(MatButtonHarness.with({ text: 'Save lesson' }))).click();
     const req = backend.expectOne('/api/lessons/lesson-1');
@@ -517,7 +525,7 @@ describe('LessonEditor', () => {
     it('warns, asks before saving the lesson, and sends nothing when not confirmed', async () => {
       await start({ id: 'lesson-1' });
       backend.expectOne('/api/lessons/lesson-1').flush(lesson({ unit: ENDORSED }));
-      flushKit();
+      await flushKit();
       fixture.detectChanges();
       expect(text()).toContain('This unit is endorsed.');
       await (await input('Lesson title')).setValue('Build and test the rover');
@@ -537,7 +545,7 @@ describe('LessonEditor', () => {
           unit: { ...ENDORSED, status: 'draft' },
         }),
       );
-      flushKit();
+      await flushKit();
       fixture.detectChanges();
       expect(text()).not.toContain('This unit is endorsed.');
     });
@@ -545,7 +553,7 @@ describe('LessonEditor', () => {
     it('asks before an activity is added; once saved the unit is a draft and nothing more is asked', async () => {
       await start({ id: 'lesson-1' });
       backend.expectOne('/api/lessons/lesson-1').flush(lesson({ unit: ENDORSED }));
-      flushKit();
+      await flushKit();
       fixture.detectChanges();
       await (await loader.getHarness(MatButtonHarness.with({ text: /Add an activity/ }))).click();
       await (await input('Activity title')).setValue('Test drive');
@@ -580,8 +588,7 @@ describe('LessonEditor', () => {
       expect(text()).toContain('This unit is endorsed.');
       await (await input('Lesson title')).setValue('Build the rover');
       await select('Class', /4K/);
-      await select('Kit type', 'Rover Builder Tub');
-      flushKit();
+      await Promise.all([select('Kit type', 'Rover Builder Tub'), flushKit()]);
       await (await input('Date')).setValue('2026-07-28');
       await select('Period', /Period 3/);
       await (await loader.getHarness(MatButtonHarness.with({ text: 'Create lesson' }))).click();

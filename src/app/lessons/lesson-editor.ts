@@ -30,6 +30,7 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
 import { Router, RouterLink } from '@angular/router';
 import { MarkdownComponent } from 'ngx-markdown';
+import { map } from 'rxjs';
 import type { SchoolClass } from '../../../shared/schemas/classes';
 import {
   TUB_STATUS_LABELS,
@@ -52,7 +53,7 @@ import { ORDER_CONFLICTS, staleConflict } from '../errors/conflict';
 import { Notifier } from '../errors/notifier';
 import { FieldErrorPipe } from '../forms/field-error';
 import { formErrorMessage } from '../forms/server-errors';
-import { apiResource } from '../http/resource';
+import { apiResource, sameAnswer } from '../http/resource';
 import { confirmEndorsedEdit, EndorsedNotice } from '../review/endorsed-edit';
 import { UnitsApi } from '../units/units-api';
 import { ActivityEditor } from './activity-editor';
@@ -130,16 +131,44 @@ export class LessonEditor implements HasUnsavedChanges {
   protected readonly form = new FormGroup(lessonControls());
   protected readonly lesson = signal<Lesson | null>(null);
   private readonly titled = itemTitle('Edit lesson', () => this.lesson()?.title);
-  protected readonly classes = signal<SchoolClass[]>([]);
-  protected readonly kitTypes = signal<KitTypeSummary[]>([]);
-  protected readonly tubs = signal<TubSummary[]>([]);
-  protected readonly parts = signal<Part[]>([]);
-  protected readonly periods = signal<BellPeriod[]>([]);
-  protected readonly reliefTeachers = signal<ReliefTeacher[]>([]);
+  /**
+   * The lesson as stored, read again when an activity editor closes (a delete changes it). The
+   * form's base is `lesson`, which a save's answer also replaces.
+   */
+  private readonly lessonRead = apiResource({
+    params: () => this.id(),
+    load: (id: string) => this.api.lesson(id),
+  });
+  protected readonly loadError = this.lessonRead.error;
+  private readonly classesRead = apiResource({ load: () => this.api.classes() });
+  protected readonly classes = computed<SchoolClass[]>(() => this.classesRead.value() ?? []);
+  private readonly kitTypesRead = apiResource({ load: () => this.api.kitTypes() });
+  protected readonly kitTypes = computed<KitTypeSummary[]>(() => this.kitTypesRead.value() ?? []);
+  private readonly periodsRead = apiResource({ load: () => this.api.periods() });
+  protected readonly periods = computed<BellPeriod[]>(() => this.periodsRead.value() ?? []);
+  private readonly reliefRead = apiResource({ load: () => this.api.reliefTeachers() });
+  protected readonly reliefTeachers = computed<ReliefTeacher[]>(
+    () => this.reliefRead.value() ?? [],
+  );
+  /** The kit type whose parts and tubs are shown: the lesson's, or the one just chosen. */
+  private readonly kitTypeId = signal<string | undefined>(undefined);
+  /** A kit type chosen in the form: its tubs that are not retired are booked once they arrive. */
+  private rebookFor: string | null = null;
+  private readonly partsRead = apiResource({
+    params: () => this.kitTypeId(),
+    load: (id: string) => this.api.kitType(id).pipe(map((kit) => kit.parts)),
+    // An open activity editor fills its form again when the parts change: not for the same list.
+    equal: sameAnswer,
+  });
+  protected readonly parts = computed<readonly Part[]>(() => this.partsRead.value() ?? []);
+  private readonly tubsRead = apiResource({
+    params: () => this.kitTypeId(),
+    load: (id: string) => this.api.tubs(id),
+  });
+  protected readonly tubs = computed<TubSummary[]>(() => this.tubsRead.value() ?? []);
   protected readonly activities = signal<Activity[]>([]);
   /** The activity open in its editor ('new' for one being added). */
   protected readonly editing = signal<string | null>(null);
-  protected readonly loadError = signal<string | null>(null);
   protected readonly formError = signal<string | null>(null);
   protected readonly orderMessage = signal<string | null>(null);
   protected readonly conflict = signal<Conflict | null>(null);
@@ -163,16 +192,16 @@ export class LessonEditor implements HasUnsavedChanges {
   );
 
   constructor() {
-    this.api.classes().subscribe((list) => this.classes.set(list));
-    this.api.kitTypes().subscribe((list) => this.kitTypes.set(list));
-    this.api.periods().subscribe((list) => this.periods.set(list));
-    this.api.reliefTeachers().subscribe((list) => this.reliefTeachers.set(list));
     effect(() => {
-      const id = this.id();
-      if (id) untracked(() => this.load(id));
+      const fresh = this.lessonRead.value();
+      if (fresh) untracked(() => this.showRead(fresh));
+    });
+    effect(() => {
+      const tubs = this.tubsRead.value();
+      if (tubs) untracked(() => this.rebook(tubs));
     });
     const c = this.form.controls;
-    c.kitTypeId.valueChanges.subscribe((kitTypeId) => this.loadKit(kitTypeId, true));
+    c.kitTypeId.valueChanges.subscribe((kitTypeId) => this.showKit(kitTypeId, true));
     c.periodId.valueChanges.subscribe((periodId) => {
       const period = this.periods().find((p) => p.id === periodId);
       if (period) {
@@ -196,12 +225,14 @@ export class LessonEditor implements HasUnsavedChanges {
     if (this.hasUnsavedChanges()) event.preventDefault();
   }
 
-  private load(id: string): void {
-    this.loadError.set(null);
-    this.api.lesson(id).subscribe({
-      next: (lesson) => this.fill(lesson),
-      error: (e: unknown) => this.loadError.set(e instanceof Error ? e.message : 'Not loaded.'),
-    });
+  /**
+   * The lesson as read: the first read fills the form; a later one shows the stored activities
+   * and unit status, and fills the form only when it holds no unsaved change.
+   */
+  private showRead(fresh: Lesson): void {
+    this.activities.set(fresh.activities);
+    this.unitStatus.set(fresh.unit.status);
+    if (!this.lesson() || !this.form.dirty) this.fill(fresh);
   }
 
   private fill(lesson: Lesson): void {
@@ -209,23 +240,26 @@ export class LessonEditor implements HasUnsavedChanges {
     this.activities.set(lesson.activities);
     this.form.reset(formValueOf(lesson), { emitEvent: false });
     this.form.controls.endTime.updateValueAndValidity({ emitEvent: false });
-    this.loadKit(lesson.kitType.id, false);
+    this.showKit(lesson.kitType.id, false);
   }
 
-  /** The kit type's parts and tubs; a new kit type books its tubs that are not retired. */
-  private loadKit(kitTypeId: string | null, rebook: boolean): void {
-    this.parts.set([]);
-    this.tubs.set([]);
-    if (!kitTypeId) return;
-    this.api.kitType(kitTypeId).subscribe((kit) => this.parts.set(kit.parts));
-    this.api.tubs(kitTypeId).subscribe((tubs) => {
-      this.tubs.set(tubs);
-      if (rebook) {
-        this.form.controls.tubIds.setValue(
-          tubs.filter((t) => t.status !== 'retired').map((t) => t.id),
-        );
-      }
-    });
+  /**
+   * Shows the kit type's parts and tubs (the same one's read again, kept shown meanwhile); a kit
+   * type chosen in the form (`rebook`) books its tubs that are not retired.
+   */
+  private showKit(kitTypeId: string | null, rebook: boolean): void {
+    this.rebookFor = rebook ? kitTypeId : null;
+    if (kitTypeId && kitTypeId === this.kitTypeId()) {
+      this.partsRead.refresh();
+      this.tubsRead.refresh();
+    } else this.kitTypeId.set(kitTypeId ?? undefined);
+  }
+
+  /** Books the tubs of a kit type just chosen in the form, once they are read. */
+  private rebook(tubs: TubSummary[]): void {
+    if (this.rebookFor === null || this.rebookFor !== this.kitTypeId()) return;
+    this.rebookFor = null;
+    this.form.controls.tubIds.setValue(tubs.filter((t) => t.status !== 'retired').map((t) => t.id));
   }
 
   /** Times typed by hand that no longer match the chosen period leave the period. */
@@ -504,13 +538,7 @@ export class LessonEditor implements HasUnsavedChanges {
     this.editing.set(null);
     this.focus(id && !deleted ? `[data-activity="${id}"] .edit-activity` : '.add-activity');
     const lesson = this.lesson();
-    // A delete closes the editor too: the list is read again so it shows what is stored.
-    if (lesson && id) {
-      this.api.lesson(lesson.id).subscribe((fresh) => {
-        this.activities.set(fresh.activities);
-        this.unitStatus.set(fresh.unit.status);
-        if (!this.form.dirty) this.fill(fresh);
-      });
-    }
+    // A delete closes the editor too: the lesson is read again so it shows what is stored.
+    if (lesson && id) this.lessonRead.refresh();
   }
 }

@@ -1,6 +1,15 @@
-import { provideHttpClient, withInterceptors, withXsrfConfiguration } from '@angular/common/http';
+import {
+  provideHttpClient,
+  withInterceptors,
+  withXsrfConfiguration,
+  type HttpRequest,
+} from '@angular/common/http';
 import { TestBed } from '@angular/core/testing';
-import { provideHttpClientTesting } from '@angular/common/http/testing';
+import {
+  provideHttpClientTesting,
+  type HttpTestingController,
+  type TestRequest,
+} from '@angular/common/http/testing';
 import {
   ChangeDetectionStrategy,
   Component,
@@ -63,4 +72,27 @@ export function errorBody(
 export async function settleReads(): Promise<void> {
   await new Promise((resolve) => setTimeout(resolve));
   TestBed.tick();
+}
+
+/**
+ * Waits, letting reads settle, until a request matching `match` is asked, then answers it with
+ * `body`: for a read a harness action starts (the action waits for the page to be stable, so for
+ * the answer, and the read is asked only after a few of its steps). Fails unless exactly one
+ * request matches.
+ */
+export async function answerWhenAsked(
+  backend: HttpTestingController,
+  match: string | ((req: HttpRequest<unknown>) => boolean),
+  body: unknown,
+): Promise<TestRequest> {
+  for (let attempt = 0; attempt < 50; attempt++) {
+    const asked = backend.match(match);
+    if (asked.length > 1) throw new Error(`${asked.length} requests match, not one.`);
+    if (asked.length === 1) {
+      asked[0]!.flush(body as Parameters<TestRequest['flush']>[0]);
+      return asked[0]!;
+    }
+    await settleReads();
+  }
+  throw new Error('The request was never asked.');
 }
