@@ -36,4 +36,6 @@ export interface DocumentDefinition {
   header?: PageDecoration;
   footer?: PageDecoration;
   content: Content[];
+  /** Asked about each node after a layout pass; `true` breaks the page before it (keep.ts). */
+  pageBreakBefore?: (node: { startPosition?: unknown }) => boolean;
 }

@@ -12,6 +12,7 @@ import type {
   PageDecoration,
 } from './content.js';
 import { SYMBOL_FONT, TEXT_FONT, TICK_BOX, WARNING_SIGN } from './fonts.js';
+import { keepRules, type Keep } from './keep.js';
 
 /**
  * Paper sizes in PostScript points (1/72 in). A4 is 210 × 297 mm (ISO 216): 210 / 25.4 × 72 =
@@ -125,6 +126,7 @@ export function tickLine(label: Content, size = 14): ContentNode {
 export function sectionTitle(text: string, lead?: Content, pageBreak = true): ContentNode {
   return {
     ...(pageBreak ? { pageBreak: 'before' } : {}),
+    keep: 'with-next',
     stack: [
       { text, style: 'sectionTitle' },
       ...(lead === undefined
@@ -142,6 +144,7 @@ export function sectionTitle(text: string, lead?: Content, pageBreak = true): Co
 /** A framed warning: black frame, no fill, the warning sign before its title. */
 export function warningBox(title: string, lines: Content[], fontSize = 11): ContentNode {
   return {
+    keep: 'together',
     margin: [0, 4, 0, 8],
     table: {
       widths: ['*'],
@@ -205,6 +208,11 @@ export const GRID_LAYOUT: ContentNode = {
   paddingTop: () => 5,
   paddingBottom: () => 5,
 };
+
+/** The node marked to keep with its neighbours at a page break (see keep.ts). */
+export function keep(how: Keep, node: ContentNode): ContentNode {
+  return { ...node, keep: how };
+}
 
 /** A header cell. */
 export function th(text: string, extra: ContentNode = {}): ContentNode {
@@ -278,5 +286,6 @@ export function documentFrame(
     styles: STYLES,
     ...decorations,
     content,
+    pageBreakBefore: keepRules(content, PAGE_MARGINS[1]),
   };
 }

@@ -3,7 +3,7 @@
  * checklist, one pull sheet per group, class and spares trays, device pairing, pack-away (return
  * map and count-back, then the missing-parts log) and the cautions. Every section starts on a
  * new page, so a pack of n groups has n + 8 pages when each part fits its page (every demo
- * lesson does, on A4 and on Letter).
+ * lesson does, on A4 and on Letter). A part that runs over breaks where keep.ts allows.
  */
 import type { Content } from './content.js';
 import type { LessonPackModel, PrintContext } from './model.js';
@@ -30,7 +30,9 @@ function unplannable(lesson: LessonPackModel, print: PrintContext): Content[] {
       ...lesson.problems.map((p) => `• ${p}`),
     ]),
     { text: 'Relief notes', style: 'heading' },
-    ...markdownToContent(lesson.reliefNotes),
+    ...(lesson.reliefNotes.trim()
+      ? markdownToContent(lesson.reliefNotes)
+      : [{ text: 'No relief notes.', italics: true }]),
     ...cautions(lesson),
   ];
 }

@@ -6,7 +6,7 @@
 import { naturalCompare } from '../../shared/prep/index.js';
 import type { Content, ContentNode } from './content.js';
 import { SYMBOL_FONT, TICK_BOX } from './fonts.js';
-import { dataTable, GRID_LAYOUT, sectionTitle, td, th, tickLine } from './layout.js';
+import { dataTable, GRID_LAYOUT, keep, sectionTitle, td, th, tickLine } from './layout.js';
 import { localClockTime, plural } from './format.js';
 import { countBack, lessonLine, type PackView } from './pack-view.js';
 
@@ -97,21 +97,25 @@ export function packAway(view: PackView): Content[] {
       ` and takes ${plural(t.packAwayMinutes, 'minute')}, until ${localClockTime(lesson.endsAt, print.timezone)}.\n`,
       { text: lessonLine(lesson, print.timezone) },
     ]),
-    { text: 'Return map', style: 'heading', margin: [0, 2, 0, 2] },
-    ...(plan.borrows.length
-      ? plan.borrows.map((b) => tickLine(b.message, 13))
-      : [
-          {
-            text: 'Nothing was borrowed: every part goes back to its group’s home tub.',
-            italics: true,
-          },
-        ]),
+    keep('together', {
+      stack: [
+        { text: 'Return map', style: 'heading', margin: [0, 2, 0, 2] },
+        ...(plan.borrows.length
+          ? plan.borrows.map((b) => tickLine(b.message, 13))
+          : [
+              {
+                text: 'Nothing was borrowed: every part goes back to its group’s home tub.',
+                italics: true,
+              },
+            ]),
+      ],
+    }),
     { text: 'Count back into each tub', style: 'heading' },
-    {
+    keep('with-next', {
       text: 'Each column is one tub: count each part back in and tick it. An empty cell means none of that part came from that tub.',
       style: 'note',
       margin: [0, 0, 0, 2],
-    },
+    }),
     ...countBackGrids(view),
     sectionTitle(
       'Missing-parts log',

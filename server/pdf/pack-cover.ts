@@ -5,7 +5,16 @@
  */
 import type { PrepPlan, PrepSegment } from '../../shared/prep/index.js';
 import type { Content, ContentNode } from './content.js';
-import { facts, ROWS_LAYOUT, sectionTitle, TEXT_COLOUR, td, th, warningBox } from './layout.js';
+import {
+  facts,
+  keep,
+  ROWS_LAYOUT,
+  sectionTitle,
+  TEXT_COLOUR,
+  td,
+  th,
+  warningBox,
+} from './layout.js';
 import { listing, localClockTime, longDate, plural } from './format.js';
 import { markdownToContent } from './markdown.js';
 import { lessonLine, type PackView } from './pack-view.js';
@@ -201,8 +210,9 @@ export function cover(view: PackView): Content[] {
       view.width,
     ),
     ...warnings(view),
-    packAwayBanner(view),
-    {
+    keep('together', packAwayBanner(view)),
+    // The timeline beside the intention and criteria: moved whole rather than split.
+    keep('together', {
       columns: [
         { width: view.width * 0.54, stack: [timeline(view)] },
         {
@@ -215,7 +225,7 @@ export function cover(view: PackView): Content[] {
         },
       ],
       columnGap: 18,
-    },
+    }),
     sectionTitle('Outcomes and relief notes', lessonLine(lesson, print.timezone)),
     { text: 'Outcomes', style: 'heading', margin: [0, 2, 0, 4] },
     ...outcomes,

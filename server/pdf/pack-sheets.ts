@@ -8,6 +8,7 @@ import {
   boxCell,
   dataTable,
   GRID_LAYOUT,
+  keep,
   sectionTitle,
   td,
   th,
@@ -50,15 +51,19 @@ export function checklist(view: PackView): Content[] {
           rows,
         )
       : { text: 'Nothing to prepare for this lesson.', italics: true },
-    {
+    keep('with-previous', {
       text: 'Start each task by its start-by time so it is done when the lesson needs it. Charging times are from empty.',
       style: 'note',
       margin: [0, 0, 0, 8],
-    },
+    }),
     ...(plan.warnings.length
       ? [
-          { text: 'Also check', style: 'heading' },
-          ...plan.warnings.map((w) => tickLine(w.message, 13)),
+          keep('together', {
+            stack: [
+              { text: 'Also check', style: 'heading' },
+              ...plan.warnings.map((w) => tickLine(w.message, 13)),
+            ],
+          }),
         ]
       : []),
     { text: 'Tubs booked', style: 'heading' },
@@ -147,14 +152,18 @@ function pullSheet(view: PackView, group: PrepGroup): Content[] {
     ]),
     ...(short.length
       ? [
-          warningBox(`Group ${group.number} is short of parts`, [
-            `Missing: ${listing(short.map((s) => `${s.needed - s.allocated} × ${view.part(s.partCode).name}`))}.`,
-            ...plan.suggestions.filter((s) => s.kind === 'groups').map((s) => s.message),
-          ]),
+          keep(
+            'with-next',
+            warningBox(`Group ${group.number} is short of parts`, [
+              `Missing: ${listing(short.map((s) => `${s.needed - s.allocated} × ${view.part(s.partCode).name}`))}.`,
+              ...plan.suggestions.filter((s) => s.kind === 'groups').map((s) => s.message),
+            ]),
+          ),
         ]
       : []),
     partsTable(view, group.lines, group.homeTub),
-    {
+    // Never a page of its own: when it does not fit under the table, the last rows come along.
+    keep('with-previous', {
       // Side by side, so a long parts list still leaves the sheet on one page.
       columns: [
         ...(borrows.length
@@ -183,7 +192,7 @@ function pullSheet(view: PackView, group: PrepGroup): Content[] {
         ...(borrows.length && group.consumables.length ? [] : [{ width: '*', text: '' }]),
       ],
       columnGap: 18,
-    },
+    }),
   ];
 }
 
@@ -200,12 +209,15 @@ export function trays(view: PackView): Content[] {
   return [
     sectionTitle('Class tray and spares tray', lessonLine(lesson, print.timezone)),
     { text: 'Class tray', style: 'heading', margin: [0, 4, 0, 2] },
-    { text: 'Shared by the whole class; it stays at the front.', style: 'note' },
+    keep('with-next', { text: 'Shared by the whole class; it stays at the front.', style: 'note' }),
     ...(classShort.length
       ? [
-          warningBox(
-            'The class tray is short',
-            classShort.map((s) => s.message),
+          keep(
+            'with-next',
+            warningBox(
+              'The class tray is short',
+              classShort.map((s) => s.message),
+            ),
           ),
         ]
       : []),
@@ -223,10 +235,10 @@ export function trays(view: PackView): Content[] {
         ]
       : []),
     { text: 'Spares tray', style: 'heading' },
-    {
+    keep('with-next', {
       text: 'Spare small parts, to replace pieces lost during the lesson. Count them back in too.',
       style: 'note',
-    },
+    }),
     sparesTray.lines.length
       ? partsTable(view, sparesTray.lines, null)
       : { text: 'No spares for this lesson.', italics: true },
@@ -246,16 +258,19 @@ export function devices(view: PackView): Content[] {
   const short = plan.warnings.filter((w) => w.code === 'devices-short');
   return [
     sectionTitle('Device pairing', lessonLine(lesson, print.timezone)),
-    {
+    keep('with-next', {
       text: `Each group pairs one device with the controller in its home tub. Write the device's name or number as it is paired. The class has ${plural(lesson.devices, 'device')}.`,
       style: 'body',
       margin: [0, 0, 0, 6],
-    },
+    }),
     ...(short.length
       ? [
-          warningBox(
-            'Not enough devices',
-            short.map((w) => w.message),
+          keep(
+            'with-next',
+            warningBox(
+              'Not enough devices',
+              short.map((w) => w.message),
+            ),
           ),
         ]
       : []),
