@@ -1,4 +1,4 @@
-import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
 import { FormControl, FormGroup, ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
@@ -16,6 +16,7 @@ import { AppError } from '../errors/app-error';
 import { FieldErrorPipe } from '../forms/field-error';
 import { formErrorMessage } from '../forms/server-errors';
 import { zodValidator } from '../forms/validators';
+import { apiResource } from '../http/resource';
 import { ClassesApi, type TeacherRef } from './classes-api';
 
 /** A number input's value (a number, or '' / null while empty) checked with the schema's rule. */
@@ -120,15 +121,9 @@ export class ClassForm {
       nonNullable: true,
     }),
   });
-  protected readonly teachers = signal<TeacherRef[]>([]);
-
-  constructor() {
-    this.api.teachers().subscribe({
-      next: (list) => this.teachers.set(list),
-      // Without the list the field stays empty; the server keeps the teachers as they are.
-      error: () => this.teachers.set([]),
-    });
-  }
+  /** Without the list the field stays empty; the server keeps the teachers as they are. */
+  private readonly teachersRead = apiResource({ load: () => this.api.teachers() });
+  protected readonly teachers = computed<TeacherRef[]>(() => this.teachersRead.value() ?? []);
   protected readonly submitting = signal(false);
   protected readonly formError = signal<string | null>(null);
 

@@ -2,9 +2,9 @@ import { DatePipe } from '@angular/common';
 import {
   ChangeDetectionStrategy,
   Component,
-  OnInit,
   computed,
   inject,
+  linkedSignal,
   signal,
 } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
@@ -12,7 +12,9 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatListModule } from '@angular/material/list';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import type { DevMail as DevMailMessage } from '../../../shared/schemas/members';
+import { tap } from 'rxjs';
 import { Notifier } from '../errors/notifier';
+import { apiResource } from '../http/resource';
 import { DevMailApi } from './dev-mail-api';
 import { linkify } from './linkify';
 
@@ -27,12 +29,25 @@ import { linkify } from './linkify';
   styleUrl: './dev-mail.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
-export class DevMail implements OnInit {
+export class DevMail {
   private readonly api = inject(DevMailApi);
   private readonly notifier = inject(Notifier);
 
-  protected readonly loading = signal(true);
-  protected readonly messages = signal<readonly DevMailMessage[]>([]);
+  private readonly read = apiResource({
+    load: () =>
+      this.api
+        .list()
+        .pipe(tap({ error: (error: unknown) => this.notifier.errorNotShownYet(error) })),
+  });
+  protected readonly loading = this.read.loading;
+  /** The messages shown: the last ones read, kept while Refresh reads again (or if it fails). */
+  protected readonly messages = linkedSignal<
+    readonly DevMailMessage[] | undefined,
+    readonly DevMailMessage[]
+  >({
+    source: this.read.value,
+    computation: (messages, previous) => messages ?? previous?.value ?? [],
+  });
   protected readonly selectedId = signal<string | null>(null);
   protected readonly selected = computed(
     () => this.messages().find((m) => m.id === this.selectedId()) ?? this.messages().at(0) ?? null,
@@ -46,22 +61,8 @@ export class DevMail implements OnInit {
     );
   });
 
-  ngOnInit(): void {
-    this.refresh();
-  }
-
   protected refresh(): void {
-    this.loading.set(true);
-    this.api.list().subscribe({
-      next: (messages) => {
-        this.messages.set(messages);
-        this.loading.set(false);
-      },
-      error: (error: unknown) => {
-        this.loading.set(false);
-        this.notifier.errorNotShownYet(error);
-      },
-    });
+    this.read.reload();
   }
 
   protected select(message: DevMailMessage): void {
