@@ -33,6 +33,8 @@ const ACTIONS = {
   'units.read': ['lead', 'teacher'],
   'units.review': ['lead', 'admin'],
   'coverage.read': ['admin', 'lead', 'teacher'],
+  /** Every tub booking of the school (the bookings view), see `seesSchoolBookings`. */
+  'bookings.school': ['admin', 'lead', 'teacher'],
   /** Copying a unit the actor can read into their own units (API.md, "Reuse"); relief never. */
   'units.copy': ['admin', 'lead', 'teacher'],
 } as const satisfies Record<string, readonly Role[]>;
@@ -109,6 +111,17 @@ export function canReadLesson(
     actor.role === 'relief' &&
     lesson.reliefTeacherId === actor.id
   );
+}
+
+/**
+ * Who sees every tub booking of the school, whoever wrote the lesson: tubs are the school's, and
+ * planning a lesson (or lending a tub) needs to know when each one is taken. Admins, leads and
+ * teachers do; a relief teacher sees the bookings of the lessons they may read (`canReadLesson`).
+ * A booking of a lesson the actor cannot read names the lesson, its class and time (as a double
+ * booking warning does) but not its unit, and links nowhere.
+ */
+export function seesSchoolBookings(actor: Actor, schoolId: string): boolean {
+  return sameSchool(actor, schoolId) && can(actor, 'bookings.school');
 }
 
 /**

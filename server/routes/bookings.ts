@@ -1,16 +1,26 @@
 /**
  * GET /api/bookings?from=&to=: the school's tub bookings day by day, each lesson with the tubs it
- * books and whether another lesson at an overlapping time books one of them too. Which lessons
- * show follows the conflicts view (the lessons the actor may read, through the policy); whether a
+ * books and whether another lesson at an overlapping time books one of them too. Admins, leads
+ * and teachers see every lesson of their school that books tubs; a relief teacher the lessons
+ * they may read (policy.ts, `seesSchoolBookings`); another school's lessons never. Whether a
  * booking is double-booked comes from the one conflict query (prep/booking-conflicts.ts).
  */
 import { Router } from 'express';
-import { asc, eq, inArray } from 'drizzle-orm';
+import { and, asc, eq, gte, inArray, lt } from 'drizzle-orm';
 import type { AppContext } from '../context.js';
-import { kitTypes, lessonTubs, tubs } from '../db/schema/index.js';
+import type { Tx } from '../db/client.js';
+import {
+  classes,
+  kitTypes,
+  lessons,
+  lessonTubs,
+  tubs,
+  unitCoauthors,
+  units,
+} from '../db/schema/index.js';
 import { parse } from '../http.js';
 import { requireActor } from '../auth/session.js';
-import { authorize } from '../auth/policy.js';
+import { authorize, canReadLesson, seesSchoolBookings, type Actor } from '../auth/policy.js';
 import { toLocal } from '../planning/format.js';
 import { bookingConflictsOf } from '../prep/booking-conflicts.js';
 import { naturalCompare } from '../../shared/prep/index.js';
@@ -19,7 +29,76 @@ import {
   type Booking,
   type BookingsResponse,
 } from '../../shared/schemas/bookings.js';
-import { readableLessons } from './agenda.js';
+
+interface BookedLesson {
+  id: string;
+  title: string;
+  startsAt: string;
+  endsAt: string;
+  unitTitle: string;
+  className: string;
+  /** Whether the actor may open the lesson. */
+  readable: boolean;
+}
+
+/** The school's lessons starting in [from, to) that the actor sees here, in time order. */
+async function bookedLessons(
+  tx: Tx,
+  actor: Actor,
+  from: string,
+  to: string,
+): Promise<BookedLesson[]> {
+  const rows = await tx
+    .select({
+      id: lessons.id,
+      title: lessons.title,
+      startsAt: lessons.startsAt,
+      endsAt: lessons.endsAt,
+      reliefTeacherId: lessons.reliefTeacherId,
+      unitId: units.id,
+      unitTitle: units.title,
+      ownerId: units.ownerId,
+      visibility: units.visibility,
+      className: classes.name,
+    })
+    .from(lessons)
+    .innerJoin(units, eq(units.id, lessons.unitId))
+    .innerJoin(classes, eq(classes.id, lessons.classId))
+    .where(
+      and(
+        eq(lessons.schoolId, actor.schoolId),
+        gte(lessons.startsAt, from),
+        lt(lessons.startsAt, to),
+      ),
+    )
+    .orderBy(asc(lessons.startsAt), asc(lessons.id));
+  const unitIds = [...new Set(rows.map((r) => r.unitId))];
+  const co = unitIds.length
+    ? await tx.select().from(unitCoauthors).where(inArray(unitCoauthors.unitId, unitIds))
+    : [];
+  const school = seesSchoolBookings(actor, actor.schoolId);
+  return rows.flatMap((r) => {
+    const facts = {
+      schoolId: actor.schoolId,
+      ownerId: r.ownerId,
+      visibility: r.visibility,
+      coauthorIds: co.filter((c) => c.unitId === r.unitId).map((c) => c.userId),
+    };
+    const readable = canReadLesson(actor, facts, r);
+    if (!readable && !school) return [];
+    return [
+      {
+        id: r.id,
+        title: r.title,
+        startsAt: r.startsAt,
+        endsAt: r.endsAt,
+        unitTitle: readable ? r.unitTitle : '',
+        className: r.className,
+        readable,
+      },
+    ];
+  });
+}
 
 /** Every local date in [from, to), as `YYYY-MM-DD` (calendar dates: UTC arithmetic). */
 function datesBetween(from: string, to: string): string[] {
@@ -37,7 +116,7 @@ export function bookingsRouter(ctx: AppContext): Router {
     const q = parse(bookingsQuerySchema, req.query);
     const body = await ctx.db.transaction(
       async (tx): Promise<BookingsResponse> => {
-        const rows = await readableLessons(tx, actor, q.from, q.to, false);
+        const rows = await bookedLessons(tx, actor, q.from, q.to);
         const ids = rows.map((r) => r.id);
         const booked = ids.length
           ? await tx
@@ -63,6 +142,7 @@ export function bookingsRouter(ctx: AppContext): Router {
             lessonId: r.id,
             lessonTitle: r.title,
             unitTitle: r.unitTitle,
+            readable: r.readable,
             className: r.className,
             startsAt,
             endsAt: toLocal(r.endsAt),

@@ -30,7 +30,10 @@ export const bookingsQuerySchema = z
 export const bookingSchema = z.object({
   lessonId: z.string(),
   lessonTitle: z.string(),
+  /** Empty when the actor may not read the lesson (a colleague's private unit, or any for admins). */
   unitTitle: z.string(),
+  /** Whether the actor may open the lesson (the screen links it only then). */
+  readable: z.boolean(),
   className: z.string(),
   /** Local date-times of the school, `2026-07-28T11:10`. */
   startsAt: z.string(),

@@ -8,8 +8,11 @@ import { after, before, describe, it } from 'node:test';
 import assert from 'node:assert/strict';
 import { Browser, testApp, type TestApp } from '../support/app.js';
 import {
+  ADMIN,
   BANKSIA_FLAT,
+  KESTREL_RIDGE,
   LEAD,
+  OTHER_ADMIN,
   OTHER_TEACHER,
   RELIEF,
   TEACHER,
@@ -32,6 +35,8 @@ const id: Record<string, string> = {};
 interface Booking {
   lessonId: string;
   lessonTitle: string;
+  unitTitle: string;
+  readable: boolean;
   startsAt: string;
   tubs: { label: string; kitTypeName: string }[];
   conflict: boolean;
@@ -86,6 +91,28 @@ before(async () => {
   // Same time as A, other tub: not a conflict.
   id['d'] = await lesson('Same time other tub', '2027-03-02', '09:00', '10:00', ['B-Tub 3']);
   id['e'] = await lesson('Thursday', '2027-03-04', '13:00', '13:50', ['B-Tub 1']);
+  // A colleague's lesson in a unit they keep private: its tub is the school's all the same.
+  const colleague = await addTeacher(db, KESTREL_RIDGE, 'colleague@kestrel-ridge.example');
+  const privateUnit = await insertUnit(db, {
+    schoolId: kestrel,
+    ownerId: colleague,
+    title: 'Private unit',
+    yearLevel: 5,
+  });
+  id['private'] = await insertLesson(
+    db,
+    {
+      schoolId: kestrel,
+      unitId: privateUnit,
+      title: 'Colleague lesson',
+      classId,
+      kitTypeId: kit,
+      startsAt: '2027-03-03 09:00:00',
+      endsAt: '2027-03-03 09:50:00',
+      groupSize: 3,
+    },
+    [tub['B-Tub 3']!],
+  );
   // The other school: same day and time, a tub of its own; it must never show at Kestrel Ridge.
   const otherTeacher = await addTeacher(db, BANKSIA_FLAT, OTHER_TEACHER);
   const otherKit = await insertKit(db, banksia, { name: 'Their kit' });
@@ -197,6 +224,41 @@ describe('GET /api/bookings', () => {
     );
     const anonymous = new Browser(t.app);
     assert.equal((await anonymous.get(WEEK)).status, 401);
+  });
+
+  it('shows an admin every booking of the school, none of another school, linking none', async () => {
+    const days: Days = (await (await as(ADMIN)).get(WEEK)).body.days;
+    const ids = ['a', 'd', 'b', 'c', 'private', 'e'].map((k) => id[k]);
+    assert.deepEqual(
+      all(days).map((x) => x.lessonId),
+      ids,
+      'every Kestrel Ridge lesson of the week, in time order',
+    );
+    // Admins do not read units (policy.ts): the lesson is named, its unit is not.
+    assert.ok(all(days).every((x) => !x.readable && x.unitTitle === ''));
+    assert.equal(byId(days, id['a']!)!.conflict, true);
+    const theirs: Days = (await (await as(OTHER_ADMIN)).get(WEEK)).body.days;
+    assert.deepEqual(
+      all(theirs).map((x) => x.lessonTitle),
+      ['Their lesson'],
+    );
+  });
+
+  it('shows a teacher a colleague’s private lesson as a booking they cannot open', async () => {
+    const days: Days = (await (await as(TEACHER)).get(WEEK)).body.days;
+    const theirs = byId(days, id['private']!)!;
+    assert.deepEqual(
+      [theirs.lessonTitle, theirs.unitTitle, theirs.readable],
+      ['Colleague lesson', '', false],
+    );
+    const own = byId(days, id['a']!)!;
+    assert.deepEqual([own.unitTitle, own.readable], ['Bookings unit', true]);
+    // A lead reads every unit of the school, so it opens for them.
+    const lead: Days = (await (await as(LEAD)).get(WEEK)).body.days;
+    assert.deepEqual(
+      [byId(lead, id['private']!)!.unitTitle, byId(lead, id['private']!)!.readable],
+      ['Private unit', true],
+    );
   });
 
   it('shows a relief teacher only the lessons the policy lets them read (their assigned ones)', async () => {
