@@ -2,8 +2,7 @@
 import express, { type Express, type RequestHandler } from 'express';
 import helmet from 'helmet';
 import type { Store } from 'express-session';
-import { randomBytes } from 'node:crypto';
-import { existsSync, readFileSync } from 'node:fs';
+import { existsSync } from 'node:fs';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import type { AppContext } from './context.js';
@@ -96,12 +95,24 @@ function api(ctx: AppContext, options: AppOptions): express.Router {
   return router;
 }
 
-/** Serves the built client; index.html gets a fresh CSP nonce on every request. */
+/** The service worker's files: checked again on every visit, so a new version is found. */
+const WORKER_FILES = new Set([
+  'ngsw-worker.js',
+  'ngsw.json',
+  'safety-worker.js',
+  'worker-basic.min.js',
+]);
+
+/**
+ * Serves the built client. index.html goes out exactly as built, the same bytes for `/`,
+ * `/index.html` and every client route: the service worker checks it against its hash in
+ * ngsw.json and serves its cached copy offline, so nothing in it may change per request (no
+ * nonce; the CSP below needs no inline script).
+ */
 function client(dir: string): express.Router {
   const router = express.Router();
   const indexFile = path.join(dir, 'index.html');
-  router.use(express.static(dir, { index: false, maxAge: '1h' }));
-  const sendIndex: RequestHandler = (_req, res) => {
+  const sendIndex: RequestHandler = (_req, res, next) => {
     if (!existsSync(indexFile)) {
       res
         .status(503)
@@ -109,14 +120,34 @@ function client(dir: string): express.Router {
         .send('The client is not built yet. Run npm start or npm run build.');
       return;
     }
-    const nonce = res.locals.cspNonce as string;
     res.setHeader('Cache-Control', 'no-cache');
-    res.type('html').send(readFileSync(indexFile, 'utf8').replaceAll('__CSP_NONCE__', nonce));
+    res.sendFile(indexFile, { cacheControl: false }, (error) => error && next(error));
   };
+  router.get('/index.html', sendIndex);
+  router.use(
+    express.static(dir, {
+      index: false,
+      maxAge: '1h',
+      setHeaders: (res, file) => {
+        if (WORKER_FILES.has(path.basename(file))) res.setHeader('Cache-Control', 'no-cache');
+      },
+    }),
+  );
   router.get('/*splat', sendIndex);
   router.get('/', sendIndex);
   return router;
 }
+
+/**
+ * Echoes a read's tag (`X-Trayplan-Read`, a random hex string the client sends with every GET):
+ * an answer the service worker later serves from its cache carries the old tag, which is how the
+ * client knows it shows a saved copy (src/app/offline/saved-copies.ts). Anything else is ignored.
+ */
+const echoReadTag: RequestHandler = (req, res, next) => {
+  const tag = req.get('X-Trayplan-Read');
+  if (tag && /^[0-9a-f]{16,64}$/.test(tag)) res.setHeader('X-Trayplan-Read', tag);
+  next();
+};
 
 export function createApp(ctx: AppContext, options: AppOptions = {}): Express {
   const app = express();
@@ -124,10 +155,6 @@ export function createApp(ctx: AppContext, options: AppOptions = {}): Express {
   // Exactly the configured number of proxies is trusted for the client's address, so a forged
   // X-Forwarded-For cannot dodge the per-address sign-in limit (Express "trust proxy" as a count).
   if (ctx.config.trustProxyHops > 0) app.set('trust proxy', ctx.config.trustProxyHops);
-  app.use((_req, res, next) => {
-    res.locals.cspNonce = randomBytes(16).toString('base64');
-    next();
-  });
   app.use(
     helmet({
       contentSecurityPolicy: {
@@ -135,10 +162,12 @@ export function createApp(ctx: AppContext, options: AppOptions = {}): Express {
         directives: {
           defaultSrc: ["'self'"],
           scriptSrc: ["'self'"],
-          styleSrc: [
-            "'self'",
-            (_req, res) => `'nonce-${(res as express.Response).locals.cspNonce}'`,
-          ],
+          // No inline script anywhere, so scripts stay 'self' only. Styles allow inline: Angular
+          // and Material add component styles at run time, and the shell the service worker
+          // serves offline cannot carry a per-request nonce (a nonce kept in a cached copy
+          // would be a fixed one, which protects nothing).
+          styleSrc: ["'self'", "'unsafe-inline'"],
+          workerSrc: ["'self'"],
           fontSrc: ["'self'"],
           imgSrc: ["'self'", 'data:', 'blob:'],
           connectSrc: ["'self'"],
@@ -153,7 +182,7 @@ export function createApp(ctx: AppContext, options: AppOptions = {}): Express {
       strictTransportSecurity: ctx.config.behindHttps,
     }),
   );
-  app.use('/api', api(ctx, options));
+  app.use('/api', echoReadTag, api(ctx, options));
   app.use(client(options.clientDir ?? clientDir));
   app.use(errorHandler);
   return app;

@@ -208,8 +208,10 @@ describe('errors', () => {
     const res = await supertest(t.app).get('/api/health');
     const csp = String(res.headers['content-security-policy']);
     assert.match(csp, /default-src 'self'/);
+    // CSP Level 3 §6.1.11 (script-src): only the app's own files run; no inline script, no eval.
     assert.match(csp, /script-src 'self'(;|$)/);
-    assert.doesNotMatch(csp, /unsafe-inline|unsafe-eval/);
+    assert.doesNotMatch(/script-src ([^;]*)/.exec(csp)![1]!, /unsafe-inline|nonce-|sha256-/);
+    assert.doesNotMatch(csp, /unsafe-eval/);
     assert.equal(res.headers['x-content-type-options'], 'nosniff');
   });
 });

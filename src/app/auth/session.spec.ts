@@ -2,6 +2,7 @@ import { HttpTestingController } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
 import { NETWORK_MESSAGE } from '../errors/app-error';
 import { Notifier } from '../errors/notifier';
+import { SavedCopies } from '../offline/saved-copies';
 import { demoUser, testProviders } from '../testing/test-providers';
 import { Session } from './session';
 
@@ -68,15 +69,41 @@ describe('Session', () => {
     expect(notifier.error).toHaveBeenCalled();
   });
 
-  it('signs out, forgets the user and takes a fresh CSRF cookie', () => {
+  it('signs out, forgets the user and takes a fresh CSRF cookie', async () => {
     session.update(demoUser('teacher'));
-    let done = false;
-    session.signOut().subscribe(() => (done = true));
+    let answer: { freshPage: boolean } | null = null;
+    session.signOut().subscribe((a) => (answer = a));
     const request = backend.expectOne('/api/auth/sign-out');
     expect(request.request.method).toBe('POST');
     request.flush('', { status: 204, statusText: 'No Content' });
     expect(session.user()).toBeNull();
     backend.expectOne('/api/auth/csrf').flush('', { status: 204, statusText: 'No Content' });
-    expect(done).toBeTrue();
+    await tick();
+    // Karma's page has no service worker, so there is none to replace by a fresh page.
+    expect(answer as { freshPage: boolean } | null).toEqual({ freshPage: false });
+  });
+
+  it("forgets the person's saved copies at sign-out, and only those", async () => {
+    localStorage.setItem('trayplan.saved.relief.today', '{"savedAt":"x","value":1}');
+    localStorage.setItem('trayplan.saved.share.abc', '{"savedAt":"x","value":2}');
+    localStorage.setItem('trayplan.other-setting', 'kept');
+    const cache = await caches.open('trayplan-spec-cache');
+    await cache.put('/api/lessons/spec-lesson', new Response('{"title":"Mine"}'));
+    const copies = TestBed.inject(SavedCopies);
+    copies.note('/api/lessons/spec-lesson', '2026-08-04T07:30:00.000Z');
+    const shown = copies.savedAt(() => ['/api/lessons/spec-lesson']);
+    expect(shown()).toBe('2026-08-04T07:30:00.000Z');
+    session.update(demoUser('relief'));
+    let done = false;
+    session.signOut().subscribe(() => (done = true));
+    backend.expectOne('/api/auth/sign-out').flush('', { status: 204, statusText: 'No Content' });
+    backend.expectOne('/api/auth/csrf').flush('', { status: 204, statusText: 'No Content' });
+    while (!done) await tick();
+    expect(localStorage.getItem('trayplan.saved.relief.today')).toBeNull();
+    expect(localStorage.getItem('trayplan.saved.share.abc')).toBeNull();
+    expect(localStorage.getItem('trayplan.other-setting')).toBe('kept');
+    expect(await caches.keys()).not.toContain('trayplan-spec-cache');
+    expect(shown()).toBeNull();
+    localStorage.removeItem('trayplan.other-setting');
   });
 });

@@ -1,8 +1,20 @@
 import { Injectable, computed, inject, signal } from '@angular/core';
-import { catchError, firstValueFrom, of, switchMap, tap, type Observable, map } from 'rxjs';
+import {
+  catchError,
+  firstValueFrom,
+  forkJoin,
+  from,
+  of,
+  switchMap,
+  tap,
+  type Observable,
+  map,
+} from 'rxjs';
 import type { SessionUser, SignIn } from '../../../shared/schemas/auth';
 import { AppError } from '../errors/app-error';
 import { Notifier } from '../errors/notifier';
+import { forgetSavedCopies } from '../offline/forget';
+import { SavedCopies } from '../offline/saved-copies';
 import { AuthApi } from './auth-api';
 
 /**
@@ -13,6 +25,7 @@ import { AuthApi } from './auth-api';
 export class Session {
   private readonly api = inject(AuthApi);
   private readonly notifier = inject(Notifier);
+  private readonly copies = inject(SavedCopies);
   private readonly current = signal<SessionUser | null>(null);
   private started: Promise<void> | null = null;
 
@@ -56,10 +69,19 @@ export class Session {
     return this.api.acceptInvitation(token, body).pipe(switchMap((user) => this.begin(user)));
   }
 
-  signOut(): Observable<void> {
+  /**
+   * Signs out, and this browser forgets every copy it saved for the person (the next person on
+   * a shared device must not find their lessons). `freshPage`: a service worker was removed, so
+   * the caller should load the next page afresh, which installs a new, empty worker.
+   */
+  signOut(): Observable<{ freshPage: boolean }> {
     return this.api.signOut().pipe(
-      tap(() => this.current.set(null)),
-      switchMap(() => this.refreshCsrf()),
+      tap(() => {
+        this.current.set(null);
+        this.copies.clear();
+      }),
+      switchMap(() => forkJoin([from(forgetSavedCopies()), this.refreshCsrf()])),
+      map(([freshPage]) => ({ freshPage })),
     );
   }
 

@@ -35,6 +35,20 @@ describe('AppError', () => {
     expect([error.status, error.code, error.message]).toEqual([0, 'network', NETWORK_MESSAGE]);
   });
 
+  it("treats the service worker's bare 504 as not reached, but keeps a 504 the server words", () => {
+    // RFC 9110 §15.6.5: 504 is a gateway's answer that the upstream server did not answer; the
+    // Angular service worker gives a bodiless 504 when its own fetch fails offline.
+    const bare = toAppError(new HttpErrorResponse({ status: 504, error: null }));
+    expect([bare.status, bare.code, bare.message]).toEqual([0, 'network', NETWORK_MESSAGE]);
+    const worded = toAppError(
+      new HttpErrorResponse({
+        status: 504,
+        error: { error: { code: 'upstream', message: 'The mail server did not answer.' } },
+      }),
+    );
+    expect([worded.status, worded.code]).toEqual([504, 'upstream']);
+  });
+
   it('reads the body of a text request, which arrives as unparsed JSON', () => {
     const error = toAppError(
       new HttpErrorResponse({

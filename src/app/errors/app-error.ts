@@ -41,10 +41,12 @@ interface ErrorBodyLike {
 
 /** Turns an HttpClient failure into an AppError. */
 export function toAppError(response: HttpErrorResponse, now: Date = new Date()): AppError {
-  if (response.status === 0) {
+  const body = errorBody(response.error);
+  // A 504 without the server's error body was never answered by Trayplan: the service worker
+  // says so when its fetch fails offline, and a proxy when the app does not answer in time.
+  if (response.status === 0 || (response.status === 504 && !body?.error)) {
     return new AppError(0, 'network', NETWORK_MESSAGE);
   }
-  const body = errorBody(response.error);
   const error = body?.error;
   const code = typeof error?.code === 'string' ? error.code : `http-${response.status}`;
   const message =

@@ -20,6 +20,8 @@ import { lessonSchema, type Lesson } from '../../../shared/schemas/lessons';
 import { AppError } from '../errors/app-error';
 import { staleConflict } from '../errors/conflict';
 import { apiResource, sameAnswer } from '../http/resource';
+import { SavedCopies } from '../offline/saved-copies';
+import { SavedCopyNotice } from '../offline/saved-copy-notice';
 import { Notifier } from '../errors/notifier';
 import { CAUTIONS_DEFER, SAFETY_CAUTIONS } from './cautions';
 import { BuildInstructions } from './build-instructions';
@@ -64,6 +66,7 @@ interface Conflict {
     TrayBoard,
     PrepTasks,
     LessonComments,
+    SavedCopyNotice,
   ],
   templateUrl: './lesson-view.html',
   styleUrl: './lesson-view.scss',
@@ -109,6 +112,11 @@ export class LessonView {
   protected readonly loadError = computed(
     () => this.lessonRead.error() ?? this.planRead.error() ?? null,
   );
+  /** When the lesson or its plan on screen is a copy the service worker saved (offline). */
+  protected readonly savedAt = inject(SavedCopies).savedAt(() => {
+    const base = `/api/lessons/${encodeURIComponent(this.id())}`;
+    return [base, `${base}/prep`];
+  });
   protected readonly saving = signal(false);
   protected readonly conflict = signal<Conflict | null>(null);
   protected readonly download = signal<{ file: Printable; fraction: number | null } | null>(null);

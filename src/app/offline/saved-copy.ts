@@ -6,7 +6,8 @@
 import { catchError, map, of, throwError, type Observable } from 'rxjs';
 import { AppError } from '../errors/app-error';
 
-const PREFIX = 'trayplan.saved.';
+/** Where pages keep their saved copies in localStorage (every key starts so). */
+export const SAVED_PREFIX = 'trayplan.saved.';
 
 /** A page's data and, when it is a saved copy, when it was saved (ISO 8601). */
 export interface MaybeSaved<T> {
@@ -31,7 +32,7 @@ export function withSavedCopy<T>(key: string, source: Observable<T>): Observable
     map((value) => {
       try {
         localStorage.setItem(
-          PREFIX + key,
+          SAVED_PREFIX + key,
           JSON.stringify({ savedAt: new Date().toISOString(), value }),
         );
       } catch {
@@ -50,7 +51,7 @@ export function withSavedCopy<T>(key: string, source: Observable<T>): Observable
 /** The copy kept under `key`, if any. */
 export function readSaved<T>(key: string): MaybeSaved<T> | null {
   try {
-    const text = localStorage.getItem(PREFIX + key);
+    const text = localStorage.getItem(SAVED_PREFIX + key);
     if (!text) return null;
     const parsed = JSON.parse(text) as { savedAt: string; value: T };
     return { value: parsed.value, savedAt: parsed.savedAt };

@@ -10,7 +10,8 @@ import { AppError } from '../errors/app-error';
 import { saveBlob } from '../files/transfer';
 import { apiResource } from '../http/resource';
 import { clockTime, dayLabel } from '../lessons/clock';
-import { savedLabel, type MaybeSaved } from '../offline/saved-copy';
+import { type MaybeSaved } from '../offline/saved-copy';
+import { SavedCopyNotice } from '../offline/saved-copy-notice';
 import type { ReliefDay } from '../../../shared/schemas/sharing';
 import { ReliefApi } from './relief-api';
 
@@ -36,16 +37,12 @@ type Shown = (MaybeSaved<ReliefDay> & { problem: null }) | { problem: string };
     MatCardModule,
     MatIconModule,
     MatProgressBarModule,
+    SavedCopyNotice,
   ],
   template: `
     <section class="page">
       <h1>Today</h1>
-      @if (savedAt(); as at) {
-        <p class="saved" role="status">
-          <mat-icon aria-hidden="true">cloud_off</mat-icon>
-          You are offline. This is the copy saved in this browser on {{ saved(at) }}.
-        </p>
-      }
+      <app-saved-copy-notice [savedAt]="savedAt()" />
       @if (problem(); as p) {
         <p role="alert">{{ p }}</p>
       } @else if (day(); as d) {
@@ -150,14 +147,6 @@ type Shown = (MaybeSaved<ReliefDay> & { problem: null }) | { problem: string };
       display: grid;
       gap: 16px;
     }
-    .saved {
-      display: flex;
-      gap: 8px;
-      align-items: center;
-      padding: 8px 12px;
-      border: 2px solid currentColor;
-      border-radius: 8px;
-    }
     .upcoming li {
       margin-bottom: 8px;
     }
@@ -209,10 +198,6 @@ export class Today {
 
   protected dayName(date: string): string {
     return dayLabel(`${date}T00:00`);
-  }
-
-  protected saved(at: string): string {
-    return savedLabel(at);
   }
 
   protected hasInstructions(lesson: DayLesson): boolean {

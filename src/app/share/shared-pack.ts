@@ -14,6 +14,7 @@ import { clockTime, dayLabel } from '../lessons/clock';
 import { PullList } from '../lessons/pull-list';
 import { Timeline } from '../lessons/timeline';
 import { savedLabel, type MaybeSaved } from '../offline/saved-copy';
+import { SavedCopyNotice } from '../offline/saved-copy-notice';
 import { ShareApi } from './share-api';
 
 /**
@@ -30,6 +31,7 @@ import { ShareApi } from './share-api';
     MatIconModule,
     MatProgressBarModule,
     PullList,
+    SavedCopyNotice,
     Timeline,
   ],
   templateUrl: './shared-pack.html',

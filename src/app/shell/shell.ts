@@ -85,6 +85,10 @@ export class Shell {
   }
 
   protected signOut(): void {
-    this.session.signOut().subscribe(() => void this.router.navigate(['/sign-in']));
+    this.session.signOut().subscribe(({ freshPage }) => {
+      // Without the removed worker, a full load gives the next person a new, empty one.
+      if (freshPage) window.location.assign('/sign-in');
+      else void this.router.navigate(['/sign-in']);
+    });
   }
 }
