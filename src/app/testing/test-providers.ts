@@ -21,20 +21,21 @@ import { provideRouter, withComponentInputBinding, type Routes } from '@angular/
 import type { SessionUser } from '../../../shared/schemas/auth';
 import type { Role } from '../../../shared/schemas/common';
 import { errorInterceptor } from '../errors/error-interceptor';
+import { savedCopyInterceptor } from '../offline/saved-copies';
 
 /** A page that renders nothing, for routes a spec only navigates to. */
 @Component({ selector: 'app-blank', template: '', changeDetection: ChangeDetectionStrategy.OnPush })
 export class Blank {}
 
 /**
- * The app's HTTP set-up (the real error interceptor) against HttpTestingController, a router
+ * The app's HTTP set-up (the real error and saved-copy interceptors) against HttpTestingController, a router
  * with `routes`, and Material animations off so specs do not wait for them.
  */
 export function testProviders(routes: Routes = []): (Provider | EnvironmentProviders)[] {
   return [
     provideRouter(routes, withComponentInputBinding()),
     provideHttpClient(
-      withInterceptors([errorInterceptor]),
+      withInterceptors([errorInterceptor, savedCopyInterceptor]),
       withXsrfConfiguration({ cookieName: 'XSRF-TOKEN', headerName: 'X-XSRF-TOKEN' }),
     ),
     provideHttpClientTesting(),
