@@ -189,7 +189,10 @@ describe('offline (service worker)', () => {
     assert.ok(await page.evaluate(() => localStorage.getItem('trayplan.saved.relief.today')));
 
     await page.locator('.user-button').click();
+    // With a worker removed, sign-out loads the sign-in page afresh (a new, empty worker).
+    const freshLoad = page.waitForEvent('load', SLOW);
     await page.getByRole('menuitem', { name: /Sign out/ }).click();
+    await freshLoad;
     await page.getByRole('button', { name: 'Sign in' }).waitFor(SLOW);
     assert.deepEqual(
       (await cachedLessons()).filter((u) => !u.endsWith('/api/auth/session')),
@@ -200,11 +203,18 @@ describe('offline (service worker)', () => {
     );
     assert.deepEqual(stored, []);
 
-    // Offline, the lesson's address shows nothing of it to the next person.
+    // The next person gets a new worker; offline, the lesson's address opens the sign-in page
+    // from its shell, with nothing of the lesson.
+    await controlled(page);
     await context.setOffline(true);
-    await page.goto(lessonUrl).catch(() => undefined);
-    await page.waitForTimeout(1000);
+    await page.goto(lessonUrl);
+    await page.getByRole('button', { name: 'Sign in' }).waitFor(SLOW);
     assert.equal(await page.getByRole('heading', { name: title, level: 1 }).count(), 0);
+    assert.equal(await page.getByText(title).count(), 0);
+    assert.deepEqual(
+      (await cachedLessons()).filter((u) => !u.endsWith('/api/auth/session')),
+      [],
+    );
     await context.close();
   });
 });
