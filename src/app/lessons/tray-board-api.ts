@@ -27,7 +27,11 @@ export class TrayBoardApi {
    */
   live(lessonId: string): Observable<TrayBoard> {
     return new Observable<TrayBoard>((subscriber) => {
-      const source = new EventSource(`/api/lessons/${encodeURIComponent(lessonId)}/trays/events`);
+      // ngsw-bypass: the service worker would wait for this endless stream to end before
+      // answering (it keeps /api/lessons/** reads for offline use); a live board is never saved.
+      const source = new EventSource(
+        `/api/lessons/${encodeURIComponent(lessonId)}/trays/events?ngsw-bypass=1`,
+      );
       source.addEventListener('trays', (event) => {
         const parsed = trayBoardSchema.safeParse(JSON.parse((event as MessageEvent<string>).data));
         if (parsed.success) subscriber.next(parsed.data);
