@@ -22,7 +22,7 @@ const LEAD = 'lead@kestrel-ridge.example';
 const RELIEF = 'relief@kestrel-ridge.example';
 
 /** Addresses that need an id or a token, found once through the API. */
-const at = { unit: '', lesson: '', copyLesson: '', pack: '', tray: '' };
+const at = { unit: '', lesson: '', copyUnit: '', copyLesson: '', pack: '', tray: '' };
 
 before(async () => {
   browser = await launch();
@@ -39,7 +39,8 @@ before(async () => {
     startDate: today,
   });
   assert.equal(copied.status(), 201, await copied.text());
-  const copy = (await (await http.get(`/api/units/${(await copied.json()).id}`)).json()) as {
+  at.copyUnit = ((await copied.json()) as { id: string }).id;
+  const copy = (await (await http.get(`/api/units/${at.copyUnit}`)).json()) as {
     lessons: { id: string; startsAt: string }[];
   };
   at.copyLesson = copy.lessons.find((l) => l.startsAt.startsWith(today))!.id;
@@ -52,6 +53,16 @@ before(async () => {
   await http.close();
 });
 after(async () => {
+  // The copy goes again, so later test files find the demo school as it was.
+  if (at.copyUnit) {
+    const http = await sessions.api(TEACHER);
+    const unit = (await (await http.get(`/api/units/${at.copyUnit}`)).json()) as {
+      version: number;
+    };
+    const gone = await http.delete(`/api/units/${at.copyUnit}?version=${unit.version}`);
+    assert.equal(gone.status(), 204, await gone.text());
+    await http.close();
+  }
   await browser.close();
 });
 

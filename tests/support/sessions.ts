@@ -38,7 +38,7 @@ export class Sessions {
     return context.newPage();
   }
 
-  /** GET and POST to the API as `email`. */
+  /** GET, POST and DELETE to the API as `email`. */
   async api(email: string) {
     const state = await this.state(email);
     const context = await this.browser.newContext({ storageState: state });
@@ -49,6 +49,8 @@ export class Sessions {
       get: (path: string): Promise<APIResponse> => context.request.get(`${baseUrl()}${path}`),
       post: (path: string, data: unknown): Promise<APIResponse> =>
         context.request.post(`${baseUrl()}${path}`, { data, headers: { 'X-XSRF-TOKEN': xsrf } }),
+      delete: (path: string): Promise<APIResponse> =>
+        context.request.delete(`${baseUrl()}${path}`, { headers: { 'X-XSRF-TOKEN': xsrf } }),
       close: () => context.close(),
     };
   }
