@@ -108,4 +108,42 @@ describe('Session', () => {
     expect(shown()).toBeNull();
     localStorage.removeItem('trayplan.other-setting');
   });
+  /** Signs in as `user` through the form's request and waits for the session to begin. */
+  async function signInAs(user: ReturnType<typeof demoUser>): Promise<void> {
+    let done = false;
+    session.signIn({ email: user.email, password: 'x' }).subscribe(() => (done = true));
+    backend.expectOne('/api/auth/sign-in').flush({ user });
+    for (let i = 0; i < 100 && !done; i++) {
+      await tick();
+      for (const csrf of backend.match('/api/auth/csrf'))
+        csrf.flush('', { status: 204, statusText: 'No Content' });
+    }
+    expect(done).toBeTrue();
+  }
+
+  it('forgets saved copies of someone else when the next person signs in without a sign-out', async () => {
+    const relief = demoUser('relief');
+    const teacher = demoUser('teacher');
+    expect(teacher.id).not.toBe(relief.id);
+    localStorage.setItem('trayplan.saved.owner', relief.id);
+    localStorage.setItem('trayplan.saved.relief.today', '{"savedAt":"x","value":1}');
+    const cache = await caches.open('trayplan-spec-claim');
+    await cache.put('/api/lessons/spec-lesson', new Response('{"title":"Theirs"}'));
+    await signInAs(teacher);
+    expect(localStorage.getItem('trayplan.saved.relief.today')).toBeNull();
+    expect(await caches.keys()).not.toContain('trayplan-spec-claim');
+    expect(localStorage.getItem('trayplan.saved.owner')).toBe(teacher.id);
+    expect(session.user()).toEqual(teacher);
+    localStorage.removeItem('trayplan.saved.owner');
+  });
+
+  it('keeps the saved copies of the same person signing in again', async () => {
+    const teacher = demoUser('teacher');
+    localStorage.setItem('trayplan.saved.owner', teacher.id);
+    localStorage.setItem('trayplan.saved.relief.today', '{"savedAt":"x","value":1}');
+    await signInAs(teacher);
+    expect(localStorage.getItem('trayplan.saved.relief.today')).not.toBeNull();
+    localStorage.removeItem('trayplan.saved.relief.today');
+    localStorage.removeItem('trayplan.saved.owner');
+  });
 });

@@ -13,7 +13,7 @@ import {
 import type { SessionUser, SignIn } from '../../../shared/schemas/auth';
 import { AppError } from '../errors/app-error';
 import { Notifier } from '../errors/notifier';
-import { forgetSavedCopies } from '../offline/forget';
+import { forgetSavedCopies, markSavedFor, savedForSomeoneElse } from '../offline/forget';
 import { SavedCopies } from '../offline/saved-copies';
 import { AuthApi } from './auth-api';
 
@@ -47,7 +47,9 @@ export class Session {
   private async load(): Promise<void> {
     await firstValueFrom(this.refreshCsrf());
     try {
-      this.current.set(await firstValueFrom(this.api.session()));
+      const user = await firstValueFrom(this.api.session());
+      if (user) await firstValueFrom(this.claim(user));
+      this.current.set(user);
     } catch (error) {
       this.current.set(null);
       if (!(error instanceof AppError && error.status === 401)) {
@@ -96,8 +98,22 @@ export class Session {
   }
 
   private begin(user: SessionUser): Observable<SessionUser> {
-    this.current.set(user);
-    return this.refreshCsrf().pipe(map(() => user));
+    return this.claim(user).pipe(
+      tap(() => this.current.set(user)),
+      switchMap(() => this.refreshCsrf()),
+      map(() => user),
+    );
+  }
+
+  /**
+   * Another person's saved copies (their session ran out, nobody signed out) are forgotten
+   * before this person's page shows; the same person's are kept (at once, nothing to wait for).
+   */
+  private claim(user: SessionUser): Observable<unknown> {
+    const forget: Observable<unknown> = savedForSomeoneElse(user.id)
+      ? from(forgetSavedCopies()).pipe(tap(() => this.copies.clear()))
+      : of(null);
+    return forget.pipe(tap(() => markSavedFor(user.id)));
   }
 
   /**

@@ -83,6 +83,8 @@ export class TrayBoard {
   protected readonly countdownText = computed(() => {
     const at = this.plan().timeline.packAwayStartsAt;
     if (!at) return null;
+    // A count only on the lesson's day: a lesson weeks away (or long past) gives the time alone.
+    if (!this.today()) return `Pack-away starts at ${clockTime(at)}.`;
     const left = (Date.parse(at) - this.now()) / 1000;
     return left > 0
       ? `Pack-away starts at ${clockTime(at)}: in ${countdown(left)}`

@@ -43,3 +43,28 @@ export function forgetStoredCopies(): void {
     // Storage turned off: nothing was kept.
   }
 }
+
+/** Whose saved copies this browser holds (under the prefix, so a sign-out forgets it too). */
+const OWNER_KEY = SAVED_PREFIX + 'owner';
+
+/**
+ * Whether this browser holds saved copies of someone other than `userId`: a session that ran
+ * out on a shared device, and the next person signed in without a sign-out.
+ */
+export function savedForSomeoneElse(userId: string): boolean {
+  try {
+    const owner = localStorage.getItem(OWNER_KEY);
+    return owner !== null && owner !== userId;
+  } catch {
+    return false; // Storage turned off: nothing was kept.
+  }
+}
+
+/** Notes whose saved copies the browser now keeps. */
+export function markSavedFor(userId: string): void {
+  try {
+    localStorage.setItem(OWNER_KEY, userId);
+  } catch {
+    // A full storage only costs the check at the next sign-in.
+  }
+}

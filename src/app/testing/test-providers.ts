@@ -4,7 +4,7 @@ import {
   withXsrfConfiguration,
   type HttpRequest,
 } from '@angular/common/http';
-import { TestBed } from '@angular/core/testing';
+import { TestBed, type ComponentFixture } from '@angular/core/testing';
 import {
   provideHttpClientTesting,
   type HttpTestingController,
@@ -16,6 +16,7 @@ import {
   type EnvironmentProviders,
   type Provider,
 } from '@angular/core';
+import { forgetStoredCopies } from '../offline/forget';
 import { MATERIAL_ANIMATIONS } from '@angular/material/core';
 import { provideRouter, withComponentInputBinding, type Routes } from '@angular/router';
 import type { SessionUser } from '../../../shared/schemas/auth';
@@ -97,3 +98,28 @@ export async function answerWhenAsked(
   }
   throw new Error('The request was never asked.');
 }
+
+/**
+ * Waits for the page to be stable while answering, each time it is asked, a read that may or may
+ * not come (e.g. the plan read again when a click brings focus into the test's window, which the
+ * browser does at a moment of its own).
+ */
+export async function whenStableAnswering(
+  fixture: ComponentFixture<unknown>,
+  backend: HttpTestingController,
+  match: string,
+  body: () => unknown,
+): Promise<void> {
+  let stable = false;
+  void fixture.whenStable().then(() => (stable = true));
+  for (let attempt = 0; !stable && attempt < 200; attempt++) {
+    for (const read of backend.match(match))
+      read.flush(body() as Parameters<TestRequest['flush']>[0]);
+    await settleReads();
+  }
+  await fixture.whenStable();
+}
+
+// Every spec starts in a browser that has saved nothing for anyone: specs share one page's
+// localStorage, and a saved copy (or its owner) left by one would change the next one's sign-in.
+beforeEach(() => forgetStoredCopies());
