@@ -33,6 +33,9 @@ export class Blank {}
  * with `routes`, and Material animations off so specs do not wait for them.
  */
 export function testProviders(routes: Routes = []): (Provider | EnvironmentProviders)[] {
+  // Each spec starts in a browser that has saved nothing for anyone: specs share one page's
+  // localStorage, and a copy (or its owner) left by one would change the next one's sign-in.
+  forgetStoredCopies();
   return [
     provideRouter(routes, withComponentInputBinding()),
     provideHttpClient(
@@ -119,7 +122,3 @@ export async function whenStableAnswering(
   }
   await fixture.whenStable();
 }
-
-// Every spec starts in a browser that has saved nothing for anyone: specs share one page's
-// localStorage, and a saved copy (or its owner) left by one would change the next one's sign-in.
-beforeEach(() => forgetStoredCopies());
