@@ -54,7 +54,9 @@ describe('app routes', () => {
     const root = harness.fixture.nativeElement as HTMLElement;
     expect(root.querySelector('header')?.textContent).toContain('Trayplan');
     expect(root.querySelector('header')?.textContent).toContain('Robin Ashdown');
-    expect(root.querySelector('nav')?.textContent).toContain('Units');
+    // The one navigation landmark (mat-nav-list has the role), named Main.
+    const navigation = root.querySelector('[role="navigation"][aria-label="Main"]');
+    expect(navigation?.textContent).toContain('Units');
     expect(root.querySelector('main')).not.toBeNull();
     expect(TestBed.inject(Title).getTitle()).toBe('Home · Trayplan');
   });
