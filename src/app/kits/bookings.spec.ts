@@ -309,6 +309,53 @@ describe('Bookings for the term', () => {
     expect(rows[1]!.querySelector('a')?.getAttribute('href')).toBe('/lessons/a');
   });
 
+  it('steps to the previous and next term of the school settings, and back to this term', async () => {
+    const TERM_2 = { id: 't2', name: 'Term 2', startsOn: '2026-04-20', endsOn: '2026-06-26' };
+    const TERM_4 = { id: 't4', name: 'Term 4', startsOn: '2026-10-12', endsOn: '2026-12-11' };
+    // Out of order in the settings: the view steps by date.
+    await chooseTerm([TERM_4, TERM_3, TERM_2]);
+    backend
+      .expectOne((r) => r.url === '/api/bookings' && r.params.get('from') === '2026-07-20')
+      .flush(range('2026-07-20', '2026-09-26'));
+    await settle(fixture);
+    expect(el().textContent).toContain('No bookings this term.');
+    const button = (name: string) =>
+      [...el().querySelectorAll<HTMLButtonElement>('nav.term-nav button')].find((b) =>
+        b.textContent?.includes(name),
+      )!;
+    button('Previous term').click();
+    await settle(fixture);
+    // Term 2 ends Friday 26 June: `to` is Saturday the 27th.
+    backend
+      .expectOne(
+        (r) =>
+          r.url === '/api/bookings' &&
+          r.params.get('from') === '2026-04-20' &&
+          r.params.get('to') === '2026-06-27',
+      )
+      .flush(range('2026-04-20', '2026-06-27'));
+    await settle(fixture);
+    expect(el().querySelector('.term-label')?.textContent).toContain('Term 2: Monday 20 April');
+    expect(el().textContent).toContain('No bookings in Term 2.');
+    // The first term: the button stays focusable but says it cannot go further.
+    expect(button('Previous term').getAttribute('aria-disabled')).toBe('true');
+    button('This term').click();
+    await settle(fixture);
+    backend
+      .expectOne((r) => r.url === '/api/bookings' && r.params.get('from') === '2026-07-20')
+      .flush(range('2026-07-20', '2026-09-26'));
+    await settle(fixture);
+    expect(el().querySelector('.term-label')?.textContent).toContain('Term 3');
+    button('Next term').click();
+    await settle(fixture);
+    backend
+      .expectOne((r) => r.url === '/api/bookings' && r.params.get('from') === '2026-10-12')
+      .flush(range('2026-10-12', '2026-12-12'));
+    await settle(fixture);
+    expect(el().textContent).toContain('No bookings in Term 4.');
+    expect(button('Next term').getAttribute('aria-disabled')).toBe('true');
+  });
+
   it('says when the school has no current or coming term', async () => {
     await chooseTerm([]);
     expect(el().textContent).toContain('No current or coming term is set in the school settings.');

@@ -95,6 +95,8 @@ export function termRange(term: OpeningTerm): { from: string; to: string; cut: b
 /** What the view opens on: the term that matters and whether anything is booked from now on. */
 interface Opening {
   term: OpeningTerm | null;
+  /** Every term set in the school settings, in date order (the term view steps through them). */
+  terms: OpeningTerm[];
   /** The Monday of this week if it has a booking, else of the next week that has one. */
   firstWeek: string | undefined;
 }
@@ -128,6 +130,7 @@ export class Bookings {
   private readonly opening = apiResource({
     load: (): Observable<Opening> =>
       this.api.terms().pipe(
+        map((terms) => [...terms].sort((a, b) => a.startsOn.localeCompare(b.startsOn))),
         switchMap((terms) => {
           const term = termThatMatters(terms, today());
           const from = mondayOf(today());
@@ -135,13 +138,32 @@ export class Bookings {
           const end = term ? dayAfter(term.endsOn) : most;
           return this.api
             .bookings(from, end < most ? end : most)
-            .pipe(map((answer) => ({ term, firstWeek: firstBookedWeek(answer) })));
+            .pipe(map((answer) => ({ term, terms, firstWeek: firstBookedWeek(answer) })));
         }),
       ),
   });
   /** Settled once the opening read has answered or failed (a failure opens on this week). */
   private readonly opened = computed(() => !this.opening.loading());
+  /** The current or next term: what "this term" means on the screen. */
   protected readonly term = computed(() => this.opening.value()?.term ?? null);
+  private readonly terms = computed(() => this.opening.value()?.terms ?? []);
+  /** The term the term view shows: the current or next one, until another is chosen. */
+  protected readonly shownTerm = linkedSignal<OpeningTerm | null>(() => this.term());
+  private readonly shownIndex = computed(() => {
+    const shown = this.shownTerm();
+    return shown ? this.terms().findIndex((t) => t.startsOn === shown.startsOn) : -1;
+  });
+  protected readonly previousTerm = computed(() =>
+    this.shownIndex() > 0 ? this.terms()[this.shownIndex() - 1]! : null,
+  );
+  protected readonly nextTerm = computed(() => {
+    const i = this.shownIndex();
+    return i >= 0 && i + 1 < this.terms().length ? this.terms()[i + 1]! : null;
+  });
+  /** Whether the term view shows the current or next term (else it names the term shown). */
+  private readonly shownIsThisTerm = computed(
+    () => this.shownTerm()?.startsOn === this.term()?.startsOn,
+  );
   /** Nothing booked from this week to the end of the term (or 100 days). */
   protected readonly nothingAhead = computed(() => {
     const o = this.opening.value();
@@ -158,7 +180,7 @@ export class Bookings {
   });
   private readonly termRead = apiResource({
     params: () => {
-      const term = this.term();
+      const term = this.shownTerm();
       if (this.mode() !== 'term' || !term) return undefined;
       const { from, to } = termRange(term);
       return `${from}/${to}`;
@@ -183,7 +205,7 @@ export class Bookings {
     () => `${dayHeading(this.monday())} to ${dayHeading(addDays(this.monday(), 6))}`,
   );
   protected readonly termLabel = computed(() => {
-    const term = this.term();
+    const term = this.shownTerm();
     if (!term) return '';
     const { to, cut } = termRange(term);
     return (
@@ -208,9 +230,14 @@ export class Bookings {
   protected readonly summary = computed(() => {
     const all = this.days().flatMap((d) => d.bookings);
     const clashes = all.filter((b) => b.conflict).length;
-    const span = this.mode() === 'week' ? 'this week' : 'this term';
+    const span =
+      this.mode() === 'week'
+        ? 'this week'
+        : this.shownIsThisTerm()
+          ? 'this term'
+          : `in ${this.shownTerm()?.name ?? 'the term'}`;
     if (all.length === 0)
-      return this.mode() === 'week' ? 'No lessons book tubs this week.' : 'No bookings this term.';
+      return this.mode() === 'week' ? 'No lessons book tubs this week.' : `No bookings ${span}.`;
     return (
       `${plural(all.length, 'lesson')} ${span}` +
       (clashes ? `, ${plural(clashes, 'lesson')} double-booked.` : ', none double-booked.')
@@ -227,6 +254,11 @@ export class Bookings {
 
   protected nextWeek(): void {
     this.monday.update((m) => addDays(m, 7));
+  }
+
+  /** Steps the term view to another term of the school settings. */
+  protected showTerm(term: OpeningTerm | null): void {
+    if (term) this.shownTerm.set(term);
   }
 
   protected thisWeek(): void {
