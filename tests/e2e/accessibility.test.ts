@@ -11,7 +11,7 @@ import assert from 'node:assert/strict';
 import { DateTime } from 'luxon';
 import type { Browser, Page } from 'playwright-core';
 import { baseUrl, launch, seriousViolations, WCAG22_AA_TAGS } from '../support/browser.js';
-import { demoLesson, Sessions } from '../support/sessions.js';
+import { copyDemoUnit, deleteUnitCopy, demoLesson, Sessions } from '../support/sessions.js';
 import { readLabelsPdf, SCHOOL_ZONE } from '../support/trays.js';
 
 let browser: Browser;
@@ -32,18 +32,11 @@ before(async () => {
   at.lesson = demo.lessonId;
   // A copy of Rescue Rovers starting today: its share link and its tray codes are live, and the
   // keyboard tests below add and delete an activity there, leaving the demo lesson as it is.
-  const http = await sessions.api(TEACHER);
   const today = DateTime.now().setZone(SCHOOL_ZONE).toISODate()!;
-  const copied = await http.post(`/api/units/${at.unit}/copy`, {
-    title: `Rescue Rovers for the audit ${Date.now().toString(36)}`,
-    startDate: today,
-  });
-  assert.equal(copied.status(), 201, await copied.text());
-  at.copyUnit = ((await copied.json()) as { id: string }).id;
-  const copy = (await (await http.get(`/api/units/${at.copyUnit}`)).json()) as {
-    lessons: { id: string; startsAt: string }[];
-  };
+  const copy = await copyDemoUnit(sessions, TEACHER, at.unit, 'Rescue Rovers for the audit', today);
+  at.copyUnit = copy.unitId;
   at.copyLesson = copy.lessons.find((l) => l.startsAt.startsWith(today))!.id;
+  const http = await sessions.api(TEACHER);
   const link = await http.post(`/api/lessons/${at.copyLesson}/share-links`, {});
   assert.equal(link.status(), 201, await link.text());
   at.pack = ((await link.json()) as { url: string }).url;
@@ -54,15 +47,7 @@ before(async () => {
 });
 after(async () => {
   // The copy goes again, so later test files find the demo school as it was.
-  if (at.copyUnit) {
-    const http = await sessions.api(TEACHER);
-    const unit = (await (await http.get(`/api/units/${at.copyUnit}`)).json()) as {
-      version: number;
-    };
-    const gone = await http.delete(`/api/units/${at.copyUnit}?version=${unit.version}`);
-    assert.equal(gone.status(), 204, await gone.text());
-    await http.close();
-  }
+  if (at.copyUnit) await deleteUnitCopy(sessions, TEACHER, at.copyUnit);
   await browser.close();
 });
 

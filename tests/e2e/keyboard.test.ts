@@ -11,7 +11,7 @@ import { after, before, describe, it } from 'node:test';
 import assert from 'node:assert/strict';
 import type { Browser, Locator, Page } from 'playwright-core';
 import { baseUrl, launch } from '../support/browser.js';
-import { demoLesson, Sessions } from '../support/sessions.js';
+import { copyDemoUnit, deleteUnitCopy, demoLesson, Sessions } from '../support/sessions.js';
 
 let browser: Browser;
 let sessions: Sessions;
@@ -25,31 +25,20 @@ before(async () => {
   browser = await launch();
   sessions = new Sessions(browser);
   const demo = await demoLesson(sessions, TEACHER);
-  const http = await sessions.api(TEACHER);
   // Dated before the demo term, so the teacher's current week stays as the demo left it.
-  const copied = await http.post(`/api/units/${demo.unitId}/copy`, {
-    title: `Rescue Rovers for the keyboard ${Date.now().toString(36)}`,
-    startDate: '2026-01-05',
-  });
-  assert.equal(copied.status(), 201, await copied.text());
-  at.copyUnit = ((await copied.json()) as { id: string }).id;
-  const copy = (await (await http.get(`/api/units/${at.copyUnit}`)).json()) as {
-    lessons: { id: string; title: string }[];
-  };
+  const copy = await copyDemoUnit(
+    sessions,
+    TEACHER,
+    demo.unitId,
+    'Rescue Rovers for the keyboard',
+    '2026-01-05',
+  );
+  at.copyUnit = copy.unitId;
   at.copyLesson = copy.lessons.find((l) => l.title.startsWith('Drive straight'))!.id;
-  await http.close();
 });
 after(async () => {
   // The copy goes again, so later test files find the demo school as it was.
-  if (at.copyUnit) {
-    const http = await sessions.api(TEACHER);
-    const unit = (await (await http.get(`/api/units/${at.copyUnit}`)).json()) as {
-      version: number;
-    };
-    const gone = await http.delete(`/api/units/${at.copyUnit}?version=${unit.version}`);
-    assert.equal(gone.status(), 204, await gone.text());
-    await http.close();
-  }
+  if (at.copyUnit) await deleteUnitCopy(sessions, TEACHER, at.copyUnit);
   await browser.close();
 });
 

@@ -75,3 +75,46 @@ export async function demoLesson(
   await http.close();
   return { unitId: unit.id, lessonId: lesson.id };
 }
+
+/** A copied unit's lessons, as the unit's read gives them. */
+export interface CopiedLesson {
+  id: string;
+  title: string;
+  startsAt: string;
+}
+
+/**
+ * Copies the demo unit as `email` (titled `title`, its first lesson on `startDate`) so a test can
+ * change it while the demo stays as it is; `deleteUnitCopy` removes it again.
+ */
+export async function copyDemoUnit(
+  sessions: Sessions,
+  email: string,
+  unitId: string,
+  title: string,
+  startDate: string,
+): Promise<{ unitId: string; lessons: CopiedLesson[] }> {
+  const http = await sessions.api(email);
+  const copied = await http.post(`/api/units/${unitId}/copy`, {
+    title: `${title} ${Date.now().toString(36)}`,
+    startDate,
+  });
+  if (copied.status() !== 201) throw new Error(`copy refused: ${await copied.text()}`);
+  const id = ((await copied.json()) as { id: string }).id;
+  const copy = (await (await http.get(`/api/units/${id}`)).json()) as { lessons: CopiedLesson[] };
+  await http.close();
+  return { unitId: id, lessons: copy.lessons };
+}
+
+/** Deletes a unit copied by `copyDemoUnit`, so later test files find the demo as it was. */
+export async function deleteUnitCopy(
+  sessions: Sessions,
+  email: string,
+  unitId: string,
+): Promise<void> {
+  const http = await sessions.api(email);
+  const unit = (await (await http.get(`/api/units/${unitId}`)).json()) as { version: number };
+  const gone = await http.delete(`/api/units/${unitId}?version=${unit.version}`);
+  if (gone.status() !== 204) throw new Error(`delete refused: ${await gone.text()}`);
+  await http.close();
+}
